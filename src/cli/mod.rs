@@ -1,0 +1,102 @@
+//! The command line: argument definitions and dispatch to the library.
+//!
+//! Each subcommand owns one file here that defines its arguments (with the
+//! help text beside each flag) and turns them into a call to the library.
+//! Nothing in this module computes anything itself.
+
+use std::ffi::OsString;
+use std::io::Write;
+use std::process::ExitCode;
+
+use clap::{Parser, Subcommand};
+
+use crate::error::{Error, ExitKind};
+
+mod inspect;
+
+/// hueproof: colours that fit the data, proven on the rendered figure.
+#[derive(Debug, Parser)]
+#[command(name = "hueproof", version, about, long_about = None)]
+pub struct Cli {
+    /// What to do.
+    #[command(subcommand)]
+    pub command: Command,
+}
+
+/// The subcommands.
+#[derive(Debug, Subcommand)]
+pub enum Command {
+    /// Measure colours: CIELAB, OKLCH, luminance, contrast, and how they look
+    /// under simulated colour-vision deficiencies.
+    Inspect(inspect::InspectArgs),
+}
+
+/// What a command produced: text for standard output and the outcome class.
+#[derive(Debug)]
+pub struct Outcome {
+    /// Text to print on standard output.
+    pub stdout: String,
+    /// Warnings to print on standard error.
+    pub warnings: Vec<String>,
+    /// Success, or findings the user asked to be told about.
+    pub kind: ExitKind,
+}
+
+impl Outcome {
+    /// A successful outcome that prints `stdout`.
+    pub fn success(stdout: String) -> Self {
+        Outcome {
+            stdout,
+            warnings: Vec::new(),
+            kind: ExitKind::Success,
+        }
+    }
+}
+
+/// Run a parsed command line and return what it produced.
+pub fn run(cli: Cli) -> Result<Outcome, Error> {
+    match cli.command {
+        Command::Inspect(args) => inspect::run(args),
+    }
+}
+
+/// Parse `args` (program name first), run, print, and map to an exit code.
+pub fn main_with_args<I, T>(args: I) -> ExitCode
+where
+    I: IntoIterator<Item = T>,
+    T: Into<OsString> + Clone,
+{
+    let cli = match Cli::try_parse_from(args) {
+        Ok(cli) => cli,
+        Err(e) => {
+            // clap prints help and version on stdout, usage errors on stderr.
+            let _ = e.print();
+            return ExitCode::from(if e.use_stderr() {
+                ExitKind::BadInput.code()
+            } else {
+                ExitKind::Success.code()
+            });
+        }
+    };
+    match run(cli) {
+        Ok(outcome) => {
+            for w in &outcome.warnings {
+                eprintln!("hueproof: warning: {w}");
+            }
+            let mut out = std::io::stdout().lock();
+            if let Err(e) = out.write_all(outcome.stdout.as_bytes()) {
+                // A closed pipe (e.g. `| head`) is not an error of ours.
+                if e.kind() != std::io::ErrorKind::BrokenPipe {
+                    eprintln!("hueproof: cannot write to standard output: {e}");
+                    return ExitCode::from(ExitKind::OutputFailed.code());
+                }
+            }
+            let _ = out.flush();
+            ExitCode::from(outcome.kind.code())
+        }
+        Err(e) => {
+            eprintln!("hueproof: error: {e}");
+            ExitCode::from(e.exit_kind().code())
+        }
+    }
+}

@@ -1,0 +1,37 @@
+//! # hueproof
+//!
+//! Render thematic maps and statistical graphics whose colours fit the data,
+//! then prove, on the rendered pixels, that the figure reads for every
+//! reader: normal colour vision, simulated colour-vision deficiencies and
+//! grayscale print.
+//!
+//! Data flows one way through the stages, one module each:
+//!
+//! `spec + data -> validated figure model -> classification and palette ->
+//! layout -> SVG -> raster (normal and simulated vision) -> measurements ->
+//! report`
+//!
+//! Stages available so far:
+//!
+//! - [`color`]: colour parsing (CSS Color 4), conversions, colour
+//!   differences, WCAG contrast and alpha compositing. Pure maths.
+//! - [`vision`]: simulated colour vision (Machado 2009, Brettel 1997,
+//!   Viénot 1999, achromatopsia) for single colours and RGBA8 rasters.
+//! - [`inspect`]: the measurements behind `hueproof inspect`.
+//! - [`report`]: text and JSON renderings of those measurements.
+//! - [`cli`]: the command line, a thin layer over the stages.
+//!
+//! An audit by hueproof is an aid to design and review. It is not a
+//! certification of conformance with any accessibility law or standard.
+
+#![forbid(unsafe_code)]
+#![warn(missing_docs)]
+
+pub mod cli;
+pub mod color;
+pub mod error;
+pub mod inspect;
+pub mod report;
+pub mod vision;
+
+pub use error::{Error, ExitKind};
