@@ -2,6 +2,9 @@
 //! go through CIE XYZ (D65) and were recalculated by the CSS working group
 //! for a consistent D65 white at 64-bit precision.
 
+// The matrices are written exactly as CSS Color 4 prints them.
+#![allow(clippy::excessive_precision)]
+
 use super::matrix::{self, Mat3};
 use super::xyz::Xyz;
 

@@ -1,8 +1,10 @@
 //! The fast path: simulate a whole RGBA8 raster in place.
 //!
 //! Channels are decoded with a 256-entry table, transformed in `f32` on
-//! linear RGB, clamped, and encoded with a 65,536-entry table indexed by
-//! the quantised linear value. Rendered figures are mostly flat fills, so a
+//! linear RGB, clamped, and encoded with a 4,096-entry table indexed by the
+//! square root of the linear value (the square root spreads the steep dark
+//! end of the sRGB curve, so one table step is under 0.1 of an 8-bit level
+//! everywhere, and the table stays in the first-level cache). Rendered figures are mostly flat fills, so a
 //! pixel equal to the previous one reuses its result. Rows are processed in
 //! parallel with rayon. The output matches [`Simulation::apply`] within one
 //! 8-bit level per channel (tested on every model).
@@ -18,7 +20,7 @@ use crate::color::srgb;
 
 use super::{Simulation, Transform};
 
-const ENCODE_STEPS: usize = 65_536;
+const ENCODE_STEPS: usize = 4096;
 
 fn decode_table() -> &'static [f32; 256] {
     static T: OnceLock<[f32; 256]> = OnceLock::new();
@@ -29,7 +31,10 @@ fn encode_table() -> &'static [u8] {
     static T: OnceLock<Vec<u8>> = OnceLock::new();
     T.get_or_init(|| {
         (0..ENCODE_STEPS)
-            .map(|i| srgb::to_u8(srgb::encode(i as f64 / (ENCODE_STEPS - 1) as f64)))
+            .map(|i| {
+                let s = i as f64 / (ENCODE_STEPS - 1) as f64;
+                srgb::to_u8(srgb::encode(s * s))
+            })
             .collect()
     })
 }
@@ -69,24 +74,68 @@ fn transform_pixel(k: &Kernel, dec: &[f32; 256], enc: &[u8], r: u8, g: u8, b: u8
     let ch = |row: &[f32; 3]| {
         let lin = row[0] * v[0] + row[1] * v[1] + row[2] * v[2];
         // Clamp to 0..1 (NaN cannot occur: inputs are finite table values).
-        let idx = (lin.clamp(0.0, 1.0) * scale + 0.5) as usize;
-        enc[idx.min(ENCODE_STEPS - 1)]
+        enc[(lin.clamp(0.0, 1.0).sqrt() * scale + 0.5) as usize]
     };
     [ch(&m[0]), ch(&m[1]), ch(&m[2])]
+}
+
+/// Pixels transformed together; the arithmetic over a block is written as
+/// plain loops over arrays so the compiler can vectorise it.
+const LANES: usize = 16;
+
+#[inline(always)]
+fn key(px: &[u8]) -> u32 {
+    u32::from_le_bytes([px[0], px[1], px[2], 0])
+}
+
+#[allow(clippy::needless_range_loop)] // lane-indexed loops vectorise
+fn transform_block(k: &Kernel, dec: &[f32; 256], enc: &[u8], block: &mut [u8]) {
+    let mut v = [[0f32; LANES]; 3];
+    for (i, px) in block.chunks_exact(4).enumerate() {
+        v[0][i] = dec[px[0] as usize];
+        v[1][i] = dec[px[1] as usize];
+        v[2][i] = dec[px[2] as usize];
+    }
+    let scale = (ENCODE_STEPS - 1) as f32;
+    let mut idx = [[0u16; LANES]; 3];
+    for i in 0..LANES {
+        let side = k.sep[0] * v[0][i] + k.sep[1] * v[1][i] + k.sep[2] * v[2][i];
+        let below = side < 0.0;
+        for c in 0..3 {
+            let m = |j: usize| if below { k.below[c][j] } else { k.above[c][j] };
+            let lin = m(0) * v[0][i] + m(1) * v[1][i] + m(2) * v[2][i];
+            idx[c][i] = (lin.clamp(0.0, 1.0).sqrt() * scale + 0.5) as u16;
+        }
+    }
+    for (i, px) in block.chunks_exact_mut(4).enumerate() {
+        px[0] = enc[idx[0][i] as usize];
+        px[1] = enc[idx[1][i] as usize];
+        px[2] = enc[idx[2][i] as usize];
+    }
 }
 
 fn simulate_chunk(k: &Kernel, chunk: &mut [u8]) {
     let dec = decode_table();
     let enc = encode_table();
-    let mut last_in = [0u8; 3];
-    let mut last_out = transform_pixel(k, dec, enc, 0, 0, 0);
-    for px in chunk.chunks_exact_mut(4) {
-        let input = [px[0], px[1], px[2]];
-        if input != last_in {
-            last_in = input;
-            last_out = transform_pixel(k, dec, enc, input[0], input[1], input[2]);
+    // The last pixel seen and its result: flat fills repeat it.
+    let mut memo_in = key(&[0, 0, 0]);
+    let mut memo_out = transform_pixel(k, dec, enc, 0, 0, 0);
+    let mut blocks = chunk.chunks_exact_mut(4 * LANES);
+    for block in &mut blocks {
+        if block.chunks_exact(4).all(|px| key(px) == memo_in) {
+            for px in block.chunks_exact_mut(4) {
+                px[..3].copy_from_slice(&memo_out);
+            }
+            continue;
         }
-        px[..3].copy_from_slice(&last_out);
+        let last = block.len() - 4;
+        memo_in = key(&block[last..]);
+        transform_block(k, dec, enc, block);
+        memo_out = [block[last], block[last + 1], block[last + 2]];
+    }
+    for px in blocks.into_remainder().chunks_exact_mut(4) {
+        let out = transform_pixel(k, dec, enc, px[0], px[1], px[2]);
+        px[..3].copy_from_slice(&out);
     }
 }
 
