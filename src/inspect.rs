@@ -5,7 +5,10 @@
 //!
 //! Translucent colours are composited over the background first (in encoded
 //! sRGB, as browsers do), so every number describes what a reader sees. A
-//! translucent background is composited over white, the page.
+//! translucent background is composited over white, the page. Colours are
+//! then measured as the 8-bit sRGB colour a figure file would carry, so
+//! `hex` and every number beside it describe the same colour; simulated
+//! views keep full precision (`rgb`) besides their 8-bit `hex`.
 
 use serde::Serialize;
 use serde::ser::SerializeMap;
@@ -163,11 +166,16 @@ fn measure(
     }
 }
 
+fn quantised(c: Srgb) -> Srgb {
+    let [r, g, b] = c.to_rgb8();
+    Srgb::from_rgb8(r, g, b)
+}
+
 /// Run an inspection.
 pub fn inspect(req: &Request) -> Result<Inspection> {
     let bg_parsed = parse_color(&req.background)?;
     let white = Srgb::new(1.0, 1.0, 1.0);
-    let bg = composite::over(bg_parsed.rgba, white);
+    let bg = quantised(composite::over(bg_parsed.rgba, white));
     let sims: Vec<(String, Simulation)> = req
         .views
         .iter()
@@ -184,7 +192,7 @@ pub fn inspect(req: &Request) -> Result<Inspection> {
     let mut colors = Vec::with_capacity(req.colors.len());
     for text in &req.colors {
         let p = parse_color(text)?;
-        let seen = composite::over(p.rgba, bg);
+        let seen = quantised(composite::over(p.rgba, bg));
         colors.push(measure(text, seen, p.rgba.alpha, p.gamut_mapped, bg, &sims));
     }
     let mut pairs = Vec::new();

@@ -1,0 +1,13 @@
+#!/bin/sh
+# Rebuild every committed sample output from the repository root.
+set -eu
+cd "$(dirname "$0")/.."
+cargo build --release --quiet
+bin=target/release/hueproof
+ramp='oklch(93% 0.04 95)|oklch(80% 0.08 135)|oklch(66% 0.1 175)|oklch(52% 0.08 215)|oklch(38% 0.09 255)'
+IFS='|'
+# shellcheck disable=SC2086
+"$bin" inspect $ramp --background '#fbfaf7' > sample-output/inspect-wetland-ramp.txt
+# shellcheck disable=SC2086
+"$bin" inspect $ramp --background '#fbfaf7' --json > sample-output/inspect-wetland-ramp.json
+echo "sample-output rebuilt"
