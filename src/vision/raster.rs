@@ -1,12 +1,13 @@
 //! The fast path: simulate a whole RGBA8 raster in place.
 //!
 //! Channels are decoded with a 256-entry table, transformed in `f32` on
-//! linear RGB, clamped, and encoded with a 4,096-entry table indexed by the
+//! linear RGB, clamped, and encoded with a 16,384-entry table indexed by the
 //! square root of the linear value (the square root spreads the steep dark
-//! end of the sRGB curve, so one table step is under 0.1 of an 8-bit level
-//! everywhere, and the table stays in the first-level cache). Rendered figures are mostly flat fills, so a
-//! pixel equal to the previous one reuses its result. Rows are processed in
-//! parallel with rayon. The output matches [`Simulation::apply`] within one
+//! end of the sRGB curve, so one table step is under 0.03 of an 8-bit level
+//! everywhere, and the table stays in the first-level cache). Pixels are
+//! transformed 16 at a time in loops the compiler vectorises. Rendered
+//! figures are mostly flat fills, so a block of pixels equal to the last
+//! pixel seen reuses its result. Rows are processed in parallel with rayon. The output matches [`Simulation::apply`] within one
 //! 8-bit level per channel (tested on every model).
 //!
 //! The buffer holds straight (not premultiplied) RGBA; alpha is left as it
@@ -20,7 +21,7 @@ use crate::color::srgb;
 
 use super::{Simulation, Transform};
 
-const ENCODE_STEPS: usize = 4096;
+const ENCODE_STEPS: usize = 16_384;
 
 fn decode_table() -> &'static [f32; 256] {
     static T: OnceLock<[f32; 256]> = OnceLock::new();
@@ -44,6 +45,7 @@ struct Kernel {
     below: [[f32; 3]; 3],
     above: [[f32; 3]; 3],
     sep: [f32; 3],
+    half_planes: bool,
 }
 
 impl Kernel {
@@ -55,11 +57,13 @@ impl Kernel {
                 below: f(m),
                 above: f(m),
                 sep: [0.0; 3],
+                half_planes: false,
             },
             Transform::HalfPlanes(h) => Kernel {
                 below: f(&h.below),
                 above: f(&h.above),
                 sep: h.sep.map(|v| v as f32),
+                half_planes: true,
             },
         }
     }
@@ -83,13 +87,27 @@ fn transform_pixel(k: &Kernel, dec: &[f32; 256], enc: &[u8], r: u8, g: u8, b: u8
 /// plain loops over arrays so the compiler can vectorise it.
 const LANES: usize = 16;
 
+/// The RGB of a pixel as one word (alpha masked off).
 #[inline(always)]
 fn key(px: &[u8]) -> u32 {
-    u32::from_le_bytes([px[0], px[1], px[2], 0])
+    u32::from_le_bytes([px[0], px[1], px[2], px[3]]) & 0x00FF_FFFF
+}
+
+/// Write `rgb` (a word from [`key`]-style packing) keeping the pixel's alpha.
+#[inline(always)]
+fn put(px: &mut [u8], rgb: u32) {
+    let word = (u32::from_le_bytes([px[0], px[1], px[2], px[3]]) & 0xFF00_0000) | rgb;
+    px.copy_from_slice(&word.to_le_bytes());
 }
 
 #[allow(clippy::needless_range_loop)] // lane-indexed loops vectorise
-fn transform_block(k: &Kernel, dec: &[f32; 256], enc: &[u8], block: &mut [u8]) {
+#[inline(always)]
+fn transform_block<const HALF_PLANES: bool>(
+    k: &Kernel,
+    dec: &[f32; 256],
+    enc: &[u8],
+    block: &mut [u8],
+) {
     let mut v = [[0f32; LANES]; 3];
     for (i, px) in block.chunks_exact(4).enumerate() {
         v[0][i] = dec[px[0] as usize];
@@ -98,13 +116,20 @@ fn transform_block(k: &Kernel, dec: &[f32; 256], enc: &[u8], block: &mut [u8]) {
     }
     let scale = (ENCODE_STEPS - 1) as f32;
     let mut idx = [[0u16; LANES]; 3];
-    for i in 0..LANES {
-        let side = k.sep[0] * v[0][i] + k.sep[1] * v[1][i] + k.sep[2] * v[2][i];
-        let below = side < 0.0;
-        for c in 0..3 {
-            let m = |j: usize| if below { k.below[c][j] } else { k.above[c][j] };
-            let lin = m(0) * v[0][i] + m(1) * v[1][i] + m(2) * v[2][i];
-            idx[c][i] = (lin.clamp(0.0, 1.0).sqrt() * scale + 0.5) as u16;
+    for c in 0..3 {
+        let (a, b) = (k.above[c], k.below[c]);
+        for i in 0..LANES {
+            let mut lin = a[0] * v[0][i] + a[1] * v[1][i] + a[2] * v[2][i];
+            if HALF_PLANES {
+                let side = k.sep[0] * v[0][i] + k.sep[1] * v[1][i] + k.sep[2] * v[2][i];
+                let other = b[0] * v[0][i] + b[1] * v[1][i] + b[2] * v[2][i];
+                lin = if side < 0.0 { other } else { lin };
+            }
+            // Round to the nearest table index by adding 2^23: the sum's
+            // mantissa is the rounded integer (bit operations vectorise,
+            // float-to-int casts do not).
+            let x = lin.clamp(0.0, 1.0).sqrt() * scale + 8_388_608.0;
+            idx[c][i] = (x.to_bits() & 0x007F_FFFF) as u16;
         }
     }
     for (i, px) in block.chunks_exact_mut(4).enumerate() {
@@ -114,28 +139,37 @@ fn transform_block(k: &Kernel, dec: &[f32; 256], enc: &[u8], block: &mut [u8]) {
     }
 }
 
-fn simulate_chunk(k: &Kernel, chunk: &mut [u8]) {
+fn simulate_chunk_with<const HALF_PLANES: bool>(k: &Kernel, chunk: &mut [u8]) {
     let dec = decode_table();
     let enc = encode_table();
     // The last pixel seen and its result: flat fills repeat it.
-    let mut memo_in = key(&[0, 0, 0]);
-    let mut memo_out = transform_pixel(k, dec, enc, 0, 0, 0);
+    let mut memo_in = 0u32;
+    let [r, g, b] = transform_pixel(k, dec, enc, 0, 0, 0);
+    let mut memo_out = key(&[r, g, b, 0]);
     let mut blocks = chunk.chunks_exact_mut(4 * LANES);
     for block in &mut blocks {
         if block.chunks_exact(4).all(|px| key(px) == memo_in) {
             for px in block.chunks_exact_mut(4) {
-                px[..3].copy_from_slice(&memo_out);
+                put(px, memo_out);
             }
             continue;
         }
         let last = block.len() - 4;
         memo_in = key(&block[last..]);
-        transform_block(k, dec, enc, block);
-        memo_out = [block[last], block[last + 1], block[last + 2]];
+        transform_block::<HALF_PLANES>(k, dec, enc, block);
+        memo_out = key(&block[last..]);
     }
     for px in blocks.into_remainder().chunks_exact_mut(4) {
         let out = transform_pixel(k, dec, enc, px[0], px[1], px[2]);
         px[..3].copy_from_slice(&out);
+    }
+}
+
+fn simulate_chunk(k: &Kernel, chunk: &mut [u8]) {
+    if k.half_planes {
+        simulate_chunk_with::<true>(k, chunk)
+    } else {
+        simulate_chunk_with::<false>(k, chunk)
     }
 }
 
