@@ -263,3 +263,23 @@ fn palette_crate_agrees_on_oklab() {
         close(ours.b, p.b, 2e-4, &row["hex"]);
     }
 }
+
+#[test]
+fn ciede2000_weights_match_colour_science_textiles() {
+    // colour-science 0.4.7 delta_E(method='CIE 2000', textiles=True) uses
+    // kL = 2, kC = kH = 1; tolerance 1e-9.
+    let pairs = read_csv("ciede2000.csv");
+    let weighted = read_csv("ciede2000_weighted.csv");
+    assert_eq!(weighted.len(), 34);
+    for (row, w) in pairs.iter().zip(&weighted) {
+        assert_eq!(row["pair"], w["pair"]);
+        let (a, b) = lab_pair(row);
+        let weights = Weights {
+            k_l: f(w, "kL"),
+            k_c: f(w, "kC"),
+            k_h: f(w, "kH"),
+        };
+        let d = hueproof::color::ciede2000::ciede2000_weighted(a, b, weights);
+        close(d, f(w, "dE00"), 1e-9, &format!("pair {}", row["pair"]));
+    }
+}
