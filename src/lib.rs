@@ -30,8 +30,10 @@
 pub mod cli;
 pub mod color;
 pub mod error;
+pub mod findings;
 pub mod inspect;
 pub mod report;
+pub mod scheme;
 pub mod vision;
 
 pub use error::{Error, ExitKind};

@@ -13,6 +13,7 @@ use clap::{Parser, Subcommand};
 use crate::error::{Error, ExitKind};
 
 mod inspect;
+mod palette;
 
 /// hueproof: colours that fit the data, proven on the rendered figure.
 #[derive(Debug, Parser)]
@@ -29,6 +30,8 @@ pub enum Command {
     /// Measure colours: CIELAB, OKLCH, luminance, contrast, and how they look
     /// under simulated colour-vision deficiencies.
     Inspect(inspect::InspectArgs),
+    /// Generate, diagnose and repair colour schemes.
+    Palette(palette::PaletteArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -57,6 +60,7 @@ impl Outcome {
 pub fn run(cli: Cli) -> Result<Outcome, Error> {
     match cli.command {
         Command::Inspect(args) => inspect::run(args),
+        Command::Palette(args) => palette::run(args),
     }
 }
 

@@ -2,3 +2,4 @@
 //! programs. No measuring happens here.
 
 pub mod inspect_text;
+pub mod palette_text;
