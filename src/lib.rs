@@ -17,6 +17,10 @@
 //!   differences, WCAG contrast and alpha compositing. Pure maths.
 //! - [`vision`]: simulated colour vision (Machado 2009, Brettel 1997,
 //!   Viénot 1999, achromatopsia) for single colours and RGBA8 rasters.
+//! - [`scheme`]: palettes: generation, checks and repair; [`findings`]
+//!   holds the finding kinds and their stable codes.
+//! - [`raster`]: SVG to pixels with resvg and the embedded font; PNG with
+//!   its DPI. [`output`] writes files atomically, never over an input.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
 //! - [`cli`]: the command line, a thin layer over the stages.
@@ -32,6 +36,8 @@ pub mod color;
 pub mod error;
 pub mod findings;
 pub mod inspect;
+pub mod output;
+pub mod raster;
 pub mod report;
 pub mod scheme;
 pub mod vision;
