@@ -100,14 +100,53 @@ pub fn choose_hues(chroma: f64, ctx: &Context) -> (f64, f64) {
 }
 
 /// Generate the classes, low arm first, midpoint in the middle.
+///
+/// Where a view shrinks a step between neighbours below the floor, the arm
+/// ends move further from the midpoint (0.02 of OKLab lightness at a time,
+/// to 0.30 on light backgrounds or 0.98 on dark ones), then the chroma
+/// drops by a fifth at a time (to 0.04), as for sequential schemes.
 pub fn generate(opts: &Options, ctx: &Context) -> Vec<Srgb> {
-    let n = opts.classes.max(2);
-    let (mid, end) = lightness_range(ctx);
-    let (h_low, h_high) = opts.hues.unwrap_or_else(|| choose_hues(opts.chroma, ctx));
-    let (low, high) = (
-        arm(mid, end, h_low, opts.chroma),
-        arm(mid, end, h_high, opts.chroma),
-    );
+    let (mid, mut end) = lightness_range(ctx);
+    let (limit, step) = if ctx.light_background() {
+        (0.30, -0.02)
+    } else {
+        (0.98, 0.02)
+    };
+    let hues = opts.hues.unwrap_or_else(|| choose_hues(opts.chroma, ctx));
+    let mut chroma = opts.chroma;
+    let sims = ctx.simulations();
+    loop {
+        let colors = generate_with(opts.classes, mid, end, hues, chroma);
+        let weakest = colors
+            .windows(2)
+            .flat_map(|w| {
+                sims.iter()
+                    .map(move |s| ciede2000(s.apply(w[0]).to_lab(), s.apply(w[1]).to_lab()))
+            })
+            .fold(f64::INFINITY, f64::min);
+        if weakest >= ctx.thresholds.min_delta_e * 1.02 {
+            return colors;
+        }
+        let next = end + step;
+        if (step < 0.0 && next >= limit - 1e-9) || (step > 0.0 && next <= limit + 1e-9) {
+            end = next;
+        } else if chroma > 0.04 {
+            chroma = (chroma * 0.8).max(0.04);
+        } else {
+            return colors;
+        }
+    }
+}
+
+fn generate_with(
+    classes: usize,
+    mid: f64,
+    end: f64,
+    (h_low, h_high): (f64, f64),
+    chroma: f64,
+) -> Vec<Srgb> {
+    let n = classes.max(2);
+    let (low, high) = (arm(mid, end, h_low, chroma), arm(mid, end, h_high, chroma));
     let k = n / 2;
     // Both arms share the positions; steps equal on the mean of the arms.
     let d = |p: &Path, a: f64, b: f64| ciede2000(p.srgb(a).to_lab(), p.srgb(b).to_lab());

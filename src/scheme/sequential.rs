@@ -82,8 +82,24 @@ fn path_to(opts: &Options, ctx: &Context, far: f64) -> Path {
 /// Steps are equal in normal vision; where a deficiency view shrinks a
 /// step below the floor (chroma differences vanish, lightness remains),
 /// the far end moves further from the background, 0.02 of OKLab
-/// lightness at a time, down to 0.18 (up to 0.99 on dark backgrounds).
+/// lightness at a time, down to 0.18 (up to 0.99 on dark backgrounds);
+/// if that is not enough, the chroma peak drops by a fifth at a time (to
+/// 0.02), which makes the equal steps lean on lightness, the one cue every
+/// view keeps.
 pub fn generate(opts: &Options, ctx: &Context) -> Vec<Srgb> {
+    let mut o = opts.clone();
+    loop {
+        let (colors, ok) = generate_once(&o, ctx);
+        if ok || o.chroma <= 0.02 {
+            return colors;
+        }
+        o.chroma = (o.chroma * 0.8).max(0.02);
+    }
+}
+
+/// One attempt at the given chroma; says whether every view keeps every
+/// step above the floor.
+fn generate_once(opts: &Options, ctx: &Context) -> (Vec<Srgb>, bool) {
     let n = opts.classes.max(2);
     let light = ctx.light_background();
     let (mut far, limit, step) = match (light, opts.to_extreme) {
@@ -114,8 +130,9 @@ pub fn generate(opts: &Options, ctx: &Context) -> Vec<Srgb> {
             } else {
                 next <= limit + 1e-9
             };
-        if weakest >= ctx.thresholds.min_delta_e * 1.02 || !can_move {
-            return colors;
+        let ok = weakest >= ctx.thresholds.min_delta_e * 1.02;
+        if ok || !can_move {
+            return (colors, ok);
         }
         far = next;
     }
