@@ -17,6 +17,9 @@
 //!   differences, WCAG contrast and alpha compositing. Pure maths.
 //! - [`vision`]: simulated colour vision (Machado 2009, Brettel 1997,
 //!   Viénot 1999, achromatopsia) for single colours and RGBA8 rasters.
+//! - [`classify`]: class breaks for classed maps (equal interval, quantile,
+//!   exact natural breaks, standard deviation, head/tail, manual), their fit,
+//!   rounding, diverging arrangement and unclassed positions.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
 //! - [`cli`]: the command line, a thin layer over the stages.
@@ -27,6 +30,7 @@
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
+pub mod classify;
 pub mod cli;
 pub mod color;
 pub mod error;

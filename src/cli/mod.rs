@@ -12,6 +12,7 @@ use clap::{Parser, Subcommand};
 
 use crate::error::{Error, ExitKind};
 
+mod breaks;
 mod inspect;
 
 /// hueproof: colours that fit the data, proven on the rendered figure.
@@ -29,6 +30,9 @@ pub enum Command {
     /// Measure colours: CIELAB, OKLCH, luminance, contrast, and how they look
     /// under simulated colour-vision deficiencies.
     Inspect(inspect::InspectArgs),
+    /// Class breaks for a classed map from one column of a CSV file, with
+    /// counts and goodness of variance fit.
+    Breaks(breaks::BreaksArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -57,6 +61,7 @@ impl Outcome {
 pub fn run(cli: Cli) -> Result<Outcome, Error> {
     match cli.command {
         Command::Inspect(args) => inspect::run(args),
+        Command::Breaks(args) => breaks::run(args),
     }
 }
 
