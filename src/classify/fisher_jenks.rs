@@ -14,10 +14,13 @@
 //! 3. The dynamic programme D[c][i] = min_j D[c-1][j] + cost(j, i) is solved
 //!    layer by layer. The cost is a Monge array (the within-class sum of
 //!    squares satisfies the quadrangle inequality), so the leftmost
-//!    optimal j is non-decreasing in i, and each layer is solved by
-//!    divide and conquer over that monotone argmin in O(m log m). The last
-//!    layer needs one cell only, O(m). Total O(k m log m) time and O(k m)
-//!    memory for the back-pointers; large layers are split across threads.
+//!    optimal j is non-decreasing in i, and each layer is solved by divide
+//!    and conquer over that monotone argmin in O(m log m). The last layer
+//!    needs one cell only, O(m). Total O(k m log m) time after sorting and
+//!    O(k m) memory for the back-pointers. Class weights are whole numbers,
+//!    so the inner loop multiplies by a tabulated reciprocal instead of
+//!    dividing (the entries then differ from a division by at most an ulp),
+//!    and large layers are split across threads.
 //!
 //! The bounds reported are the largest value of each class, so they are
 //! actual data values. With fewer distinct values than classes, each
@@ -25,9 +28,6 @@
 
 use super::{Bounds, check_classes};
 use crate::error::Error;
-
-/// Row blocks smaller than this are solved on the current thread.
-const PARALLEL_ROWS: usize = 1 << 14;
 
 /// Upper bounds of the optimal `classes`-class partition of sorted `x`.
 pub fn bounds(x: &[f64], classes: usize) -> Result<Bounds, Error> {
@@ -109,7 +109,8 @@ impl Prefix {
 }
 
 /// Exclusive end indices (into `values`) of the k optimal classes; the last
-/// is `values.len()`. Requires 1 <= k <= values.len().
+/// is `values.len()`. Requires 1 <= k <= values.len() and whole-number
+/// weights (multiplicities).
 pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
     let m = values.len();
     debug_assert!(k >= 1 && k <= m);
@@ -120,30 +121,32 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
         return (1..=m).collect();
     }
     let p = Prefix::new(values, weights);
+    let layer = Layer::new(&p);
     // prev[i] = D[c-1][i] for i in 0..=m (cost of the best (c-1)-class split of
     // the first i points); unreachable cells are +inf.
     let mut prev: Vec<f64> = (0..=m)
         .map(|i| if i == 0 { f64::INFINITY } else { p.cost(0, i) })
         .collect();
     let mut cur = vec![f64::INFINITY; m + 1];
+    let mut q = vec![0.0; m + 1];
     // back[c - 2][i] = start of the last class in the best c-class split of
     // the first i points, for layers c = 2..k-1.
     let mut back: Vec<Vec<u32>> = Vec::with_capacity(k.saturating_sub(2));
     for c in 2..k {
         let mut arg = vec![0u32; m + 1];
+        // q[j] = D[c-1][j] - S2[j]: the part of an entry that depends on j only.
+        for (qj, (d, s2)) in q.iter_mut().zip(prev.iter().zip(&p.s2)) {
+            *qj = d - s2;
+        }
         // Rows i = c..=m - (k - c): later rows cannot lead to a k-class split.
-        let lo = c;
-        let hi = m - (k - c);
+        // Columns j = c - 1..i (the start of the last class).
+        let (lo, hi) = (c, m - (k - c));
         cur.iter_mut().for_each(|v| *v = f64::INFINITY);
-        solve_rows(
-            &p,
-            &prev,
-            &mut cur[lo..=hi],
-            &mut arg[lo..=hi],
-            lo,
-            c - 1,
-            hi - 1,
-        );
+        let job = Job {
+            layer: &layer,
+            q: &q,
+        };
+        job.solve(&mut cur[lo..=hi], &mut arg[lo..=hi], lo, c - 1, hi - 1);
         back.push(arg);
         std::mem::swap(&mut prev, &mut cur);
     }
@@ -169,46 +172,109 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
     ends
 }
 
-/// Fill `out[r]`, `arg[r]` for rows i = row0 + r with the minimum over
-/// j in [jlo, min(jhi, i - 1)] of prev[j] + cost(j, i), using the
-/// monotonicity of the leftmost argmin (divide and conquer).
-fn solve_rows(
-    p: &Prefix,
-    prev: &[f64],
-    out: &mut [f64],
-    arg: &mut [u32],
-    row0: usize,
-    jlo: usize,
-    jhi: usize,
-) {
-    if out.is_empty() {
-        return;
+/// What every layer shares: the prefix sums, whole-number prefix weights and
+/// a table of reciprocals 1/d (class weights are whole numbers d <= n, so a
+/// multiplication replaces the division in the inner loop).
+struct Layer<'a> {
+    p: &'a Prefix,
+    wint: Vec<u32>,
+    inv: Vec<f64>,
+}
+
+impl<'a> Layer<'a> {
+    fn new(p: &'a Prefix) -> Layer<'a> {
+        let wint: Vec<u32> = p.w.iter().map(|&w| w.round() as u32).collect();
+        let total = *wint.last().unwrap_or(&0) as usize;
+        let inv = (0..=total)
+            .map(|d| if d == 0 { 0.0 } else { 1.0 / d as f64 })
+            .collect();
+        Layer { p, wint, inv }
     }
-    let mid = out.len() / 2;
-    let i = row0 + mid;
-    let top = jhi.min(i - 1);
-    let mut best = f64::INFINITY;
-    let mut best_j = jlo;
-    for (j, &d) in prev.iter().enumerate().take(top + 1).skip(jlo) {
-        let v = d + p.cost(j, i);
-        if v < best {
-            best = v;
-            best_j = j;
+}
+
+/// One layer of the programme: rows i, columns j (start of the last class),
+/// entry q[j] - (S1[i] - S1[j])^2 / (W[i] - W[j]) (+ S2[i], constant in a
+/// row). The cost is Monge, so the leftmost argmin is non-decreasing in i.
+struct Job<'a> {
+    layer: &'a Layer<'a>,
+    q: &'a [f64],
+}
+
+/// Row blocks at least this large are split across threads.
+const PARALLEL_ROWS: usize = 1 << 15;
+
+impl Job<'_> {
+    /// Fill `out[r]`, `arg[r]` for rows i = row0 + r with the minimum over
+    /// j in [jlo, min(jhi, i - 1)], by divide and conquer over the monotone
+    /// argmin.
+    fn solve(&self, out: &mut [f64], arg: &mut [u32], row0: usize, jlo: usize, jhi: usize) {
+        if out.is_empty() {
+            return;
+        }
+        let mid = out.len() / 2;
+        let i = row0 + mid;
+        let (best, best_j) = self.row_min(i, jlo, jhi.min(i - 1));
+        out[mid] = best + self.layer.p.s2[i];
+        arg[mid] = best_j as u32;
+        let (out_l, out_r) = out.split_at_mut(mid);
+        let (arg_l, arg_r) = arg.split_at_mut(mid);
+        let (out_r, arg_r) = (&mut out_r[1..], &mut arg_r[1..]);
+        if out_l.len() + out_r.len() >= PARALLEL_ROWS {
+            rayon::join(
+                || self.solve(out_l, arg_l, row0, jlo, best_j),
+                || self.solve(out_r, arg_r, i + 1, best_j, jhi),
+            );
+        } else {
+            self.solve(out_l, arg_l, row0, jlo, best_j);
+            self.solve(out_r, arg_r, i + 1, best_j, jhi);
         }
     }
-    out[mid] = best;
-    arg[mid] = best_j as u32;
-    let (out_l, out_r) = out.split_at_mut(mid);
-    let (arg_l, arg_r) = arg.split_at_mut(mid);
-    let (out_r, arg_r) = (&mut out_r[1..], &mut arg_r[1..]);
-    if out_l.len() + out_r.len() >= PARALLEL_ROWS {
-        rayon::join(
-            || solve_rows(p, prev, out_l, arg_l, row0, jlo, best_j),
-            || solve_rows(p, prev, out_r, arg_r, i + 1, best_j, jhi),
-        );
-    } else {
-        solve_rows(p, prev, out_l, arg_l, row0, jlo, best_j);
-        solve_rows(p, prev, out_r, arg_r, i + 1, best_j, jhi);
+
+    /// Minimum (without the row constant) and leftmost argmin of row i over
+    /// columns a..=b. Four independent lanes keep the pipeline full.
+    #[inline]
+    fn row_min(&self, i: usize, a: usize, b: usize) -> (f64, usize) {
+        let l = self.layer;
+        let (s1i, wi) = (l.p.s1[i], l.wint[i]);
+        let q = &self.q[a..=b];
+        let s1 = &l.p.s1[a..=b];
+        let w = &l.wint[a..=b];
+        let inv = &l.inv[..=wi as usize];
+        let entry = |qj: f64, s1j: f64, wj: u32| {
+            let d = s1i - s1j;
+            qj - d * d * inv[(wi - wj) as usize]
+        };
+        let mut best = [f64::INFINITY; 4];
+        let mut at = [0usize; 4];
+        let full = q.len() / 4 * 4;
+        for c in (0..full).step_by(4) {
+            for lane in 0..4 {
+                let j = c + lane;
+                let v = entry(q[j], s1[j], w[j]);
+                if v < best[lane] {
+                    best[lane] = v;
+                    at[lane] = j;
+                }
+            }
+        }
+        let (mut b_v, mut b_j) = (f64::INFINITY, usize::MAX);
+        for lane in 0..4 {
+            if best[lane] < b_v || (best[lane] == b_v && at[lane] < b_j) {
+                b_v = best[lane];
+                b_j = at[lane];
+            }
+        }
+        for j in full..q.len() {
+            let v = entry(q[j], s1[j], w[j]);
+            if v < b_v {
+                b_v = v;
+                b_j = j;
+            }
+        }
+        if b_j == usize::MAX {
+            b_j = 0;
+        }
+        (b_v, a + b_j)
     }
 }
 
