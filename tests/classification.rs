@@ -393,18 +393,23 @@ fn breaks_command_json_shape_and_reference_values() {
         }
     }
     let path = temp_csv("lognormal.csv", &csv);
-    let out = cli(&[
-        "breaks",
-        path.to_str().unwrap(),
-        "--column",
-        "density",
-        "--method",
-        "natural",
-        "--classes",
-        "5",
-        "--json",
-    ])
-    .unwrap();
+    let run_on = |method: &str, json: bool| {
+        let mut args = vec![
+            "breaks",
+            path.to_str().unwrap(),
+            "--column",
+            "density",
+            "--method",
+            method,
+            "--classes",
+            "5",
+        ];
+        if json {
+            args.push("--json");
+        }
+        cli(&args).unwrap()
+    };
+    let out = run_on("natural", true);
     assert_eq!(out.kind, ExitKind::Success);
     let v: Value = serde_json::from_str(&out.stdout).unwrap();
     let entry = results()
@@ -428,31 +433,9 @@ fn breaks_command_json_shape_and_reference_values() {
     assert_eq!(ints(&h["counts"]).iter().sum::<usize>(), 500);
     assert!(out.warnings.iter().any(|w| w.contains("5 missing")));
     // Same input, same bytes.
-    let again = cli(&[
-        "breaks",
-        path.to_str().unwrap(),
-        "--column",
-        "density",
-        "--method",
-        "natural",
-        "--classes",
-        "5",
-        "--json",
-    ])
-    .unwrap();
-    assert_eq!(again.stdout, out.stdout);
+    assert_eq!(run_on("natural", true).stdout, out.stdout);
     // Text for people.
-    let text = cli(&[
-        "breaks",
-        path.to_str().unwrap(),
-        "--column",
-        "density",
-        "--method",
-        "quantile",
-        "--classes",
-        "5",
-    ])
-    .unwrap();
+    let text = run_on("quantile", false);
     assert!(
         text.stdout
             .contains("quantile: 5 classes, 500 values, 5 missing"),

@@ -85,26 +85,8 @@ pub fn bounds(
             message: "there is no value to classify".into(),
         });
     }
-    let below = x.partition_point(|&v| v < midpoint);
-    let at_end = x.partition_point(|&v| v <= midpoint);
-    let report = MidpointReport {
-        value: midpoint,
-        arrangement,
-        below,
-        at: at_end - below,
-        above: x.len() - at_end,
-    };
-    let mut warnings = Vec::new();
-    if report.below == 0 {
-        warnings.push(format!(
-            "no value lies below the midpoint {midpoint}: the classes on that side are empty"
-        ));
-    }
-    if report.above == 0 {
-        warnings.push(format!(
-            "no value lies above the midpoint {midpoint}: the classes on that side are empty"
-        ));
-    }
+    let (report, mut warnings) = sides(x, midpoint, arrangement);
+    let at_end = report.below + report.at;
     let (min, max) = (x[0], x[x.len() - 1]);
     let extent = (midpoint - min).max(max - midpoint);
     let upper = match arrangement {
@@ -211,17 +193,7 @@ pub fn check_manual(
     midpoint: f64,
     arrangement: Arrangement,
 ) -> (MidpointReport, Vec<String>) {
-    let x = sample.sorted();
-    let below = x.partition_point(|&v| v < midpoint);
-    let at_end = x.partition_point(|&v| v <= midpoint);
-    let report = MidpointReport {
-        value: midpoint,
-        arrangement,
-        below,
-        at: at_end - below,
-        above: x.len() - at_end,
-    };
-    let mut warnings = Vec::new();
+    let (report, mut warnings) = sides(sample.sorted(), midpoint, arrangement);
     let tol = 1e-12 * midpoint.abs().max(1.0);
     let respected = match arrangement {
         Arrangement::Break => upper.iter().any(|&b| (b - midpoint).abs() <= tol),
@@ -238,11 +210,27 @@ pub fn check_manual(
             }
         ));
     }
-    if report.below == 0 {
-        warnings.push(format!("no value lies below the midpoint {midpoint}"));
-    }
-    if report.above == 0 {
-        warnings.push(format!("no value lies above the midpoint {midpoint}"));
+    (report, warnings)
+}
+
+/// Count the values on each side of the midpoint and warn for an empty side.
+fn sides(x: &[f64], midpoint: f64, arrangement: Arrangement) -> (MidpointReport, Vec<String>) {
+    let below = x.partition_point(|&v| v < midpoint);
+    let at_end = x.partition_point(|&v| v <= midpoint);
+    let report = MidpointReport {
+        value: midpoint,
+        arrangement,
+        below,
+        at: at_end - below,
+        above: x.len() - at_end,
+    };
+    let mut warnings = Vec::new();
+    for (n, side) in [(report.below, "below"), (report.above, "above")] {
+        if n == 0 {
+            warnings.push(format!(
+                "no value lies {side} the midpoint {midpoint}: the classes on that side are empty"
+            ));
+        }
     }
     (report, warnings)
 }
