@@ -572,3 +572,63 @@ fn unclassed_positions() {
     assert_eq!(unclassed::position(6.0, -2.0, 10.0, Some(2.0)), 0.75);
     assert_eq!(unclassed::position_symmetric(-2.0, -2.0, 10.0, 2.0), 0.25);
 }
+
+/// `--method unclassed`: legend ticks with their ramp positions (linear
+/// interpolation, common practice).
+#[test]
+fn unclassed_command_reports_ticks() {
+    let mut csv = String::from("id,v\n");
+    for i in 0..=10 {
+        csv.push_str(&format!("r{i},{i}\n"));
+    }
+    let path = temp_csv("ramp.csv", &csv);
+    let p = path.to_str().unwrap();
+    let out = cli(&[
+        "breaks",
+        p,
+        "--column",
+        "v",
+        "--method",
+        "unclassed",
+        "--midpoint",
+        "2",
+        "--json",
+    ])
+    .unwrap();
+    let v: Value = serde_json::from_str(&out.stdout).unwrap();
+    assert_eq!(v["method"], "unclassed");
+    let ticks: Vec<(f64, f64)> = v["ticks"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|t| {
+            (
+                t["value"].as_f64().unwrap(),
+                t["position"].as_f64().unwrap(),
+            )
+        })
+        .collect();
+    assert_eq!(
+        ticks,
+        vec![
+            (0.0, 0.0),
+            (2.0, 0.5),
+            (2.5, 0.53125),
+            (5.0, 0.6875),
+            (7.5, 0.84375),
+            (10.0, 1.0)
+        ]
+    );
+    let e = cli(&[
+        "breaks",
+        p,
+        "--column",
+        "v",
+        "--method",
+        "unclassed",
+        "--classes",
+        "4",
+    ])
+    .unwrap_err();
+    assert!(e.to_string().contains("--classes"), "{e}");
+}

@@ -10,7 +10,7 @@ use crate::classify::diverging::{self, Arrangement, SideMethod};
 use crate::classify::head_tail::StopRule;
 use crate::classify::rounding::{self, RoundRule};
 use crate::classify::std_dev::Multiples;
-use crate::classify::{self, Classification, Method, Sample, text};
+use crate::classify::{self, Classification, Method, Sample, text, unclassed};
 use crate::error::Error;
 
 use super::Outcome;
@@ -75,6 +75,13 @@ pub struct BreaksArgs {
     /// Number of equal-width histogram bins reported for legends.
     #[arg(long, default_value_t = classify::DEFAULT_HISTOGRAM_BINS, value_name = "N")]
     pub histogram_bins: usize,
+    /// unclassed: number of evenly spaced legend ticks from min to max.
+    #[arg(long, default_value_t = 5, value_name = "N")]
+    pub ticks: usize,
+    /// unclassed with --midpoint: one scale for both sides (the shorter side
+    /// does not reach its end of the ramp).
+    #[arg(long)]
+    pub symmetric: bool,
     /// Print one JSON object instead of text.
     #[arg(long)]
     pub json: bool,
@@ -95,6 +102,9 @@ pub enum MethodArg {
     Headtail,
     /// Bounds given with --breaks.
     Manual,
+    /// No classes: a continuous ramp over the data range (ticks and
+    /// positions for the legend).
+    Unclassed,
 }
 
 /// Midpoint arrangements on the command line.
@@ -140,6 +150,7 @@ fn method_name(m: MethodArg) -> &'static str {
         MethodArg::Stddev => "stddev",
         MethodArg::Headtail => "headtail",
         MethodArg::Manual => "manual",
+        MethodArg::Unclassed => "unclassed",
     }
 }
 
@@ -184,6 +195,11 @@ fn method(args: &BreaksArgs) -> Result<Method, Error> {
             Some(s) => StopRule::HeadShare(s),
             None => StopRule::SingleValue,
         }),
+        MethodArg::Unclassed => {
+            return Err(Error::Internal(
+                "unclassed colouring has no class breaks".into(),
+            ));
+        }
         MethodArg::Manual => {
             let list = args.breaks.as_deref().ok_or_else(|| {
                 usage(
@@ -276,21 +292,67 @@ pub fn run(args: BreaksArgs) -> Result<Outcome, Error> {
         spec.missing = m.split(',').map(|s| s.trim().to_string()).collect();
     }
     let sample = column::read(&args.file, &spec)?;
+    if args.method == MethodArg::Unclassed {
+        return run_unclassed(&sample, &args);
+    }
     let c = classify_sample(&sample, &args)?;
-    let mut outcome = if args.json {
-        let mut s = serde_json::to_string_pretty(&c)
-            .map_err(|e| Error::Internal(format!("serialising the classification: {e}")))?;
-        s.push('\n');
-        Outcome::success(s)
+    let stdout = if args.json {
+        json(&c)?
     } else {
-        Outcome::success(text::render(&c))
+        text::render(&c)
     };
-    outcome.warnings = c.warnings.clone();
-    if c.missing > 0 {
-        outcome.warnings.push(format!(
-            "{} missing value(s) in column '{}' are in no class",
-            c.missing, args.column
+    Ok(with_warnings(stdout, c.warnings.clone(), c.missing, &args))
+}
+
+fn json<T: serde::Serialize>(value: &T) -> Result<String, Error> {
+    let mut s = serde_json::to_string_pretty(value)
+        .map_err(|e| Error::Internal(format!("serialising the result: {e}")))?;
+    s.push('\n');
+    Ok(s)
+}
+
+fn with_warnings(
+    stdout: String,
+    mut warnings: Vec<String>,
+    missing: usize,
+    args: &BreaksArgs,
+) -> Outcome {
+    if missing > 0 {
+        warnings.push(format!(
+            "{missing} missing value(s) in column '{}' are in no class",
+            args.column
         ));
     }
-    Ok(outcome)
+    let mut outcome = Outcome::success(stdout);
+    outcome.warnings = warnings;
+    outcome
+}
+
+/// `--method unclassed`: the continuous ramp and its legend ticks.
+fn run_unclassed(sample: &Sample, args: &BreaksArgs) -> Result<Outcome, Error> {
+    for (given, what) in [
+        (args.classes.is_some(), "--classes"),
+        (args.breaks.is_some(), "--breaks"),
+        (args.round.is_some(), "--round"),
+    ] {
+        if given {
+            return Err(usage(
+                what,
+                "--method unclassed has no classes; drop this option".into(),
+            ));
+        }
+    }
+    let r = unclassed::ramp(
+        sample,
+        args.midpoint,
+        args.symmetric,
+        args.ticks,
+        args.histogram_bins.max(1),
+    )?;
+    let stdout = if args.json {
+        json(&r)?
+    } else {
+        unclassed::render(&r)
+    };
+    Ok(with_warnings(stdout, Vec::new(), r.missing, args))
 }
