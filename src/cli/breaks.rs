@@ -126,7 +126,15 @@ fn usage(what: &str, message: String) -> Error {
 /// Parse a comma-separated list of numbers for option `what`.
 fn number_list(what: &str, list: &str) -> Result<Vec<f64>, Error> {
     list.split(',')
-        .map(|item| column::parse_number(item.trim()).map_err(|why| usage(what, why)))
+        .map(|item| match item.trim() {
+            "" => Err(usage(
+                what,
+                format!(
+                    "empty item in '{list}'; expected comma-separated numbers such as 10,25,50"
+                ),
+            )),
+            item => column::parse_number(item).map_err(|why| usage(what, why)),
+        })
         .collect()
 }
 
