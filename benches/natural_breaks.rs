@@ -1,8 +1,8 @@
 //! Natural breaks (exact Fisher-Jenks), k = 7, on 1,000,000 lognormal
 //! values, timed as a ratio to sorting the same values in the same run.
 //!
-//! Plain timing harness (`harness = false`): each measurement is the median
-//! of several runs. Printed:
+//! Plain timing harness (`harness = false`): the measurements are
+//! interleaved, repeated, and reported as median and minimum. Printed:
 //!
 //! - `sort`: copying and sorting the values (`sort_unstable_by(total_cmp)`),
 //!   the baseline;
@@ -19,7 +19,7 @@ use hueproof::classify::{self, Method, Sample};
 
 const N: usize = 1_000_000;
 const K: usize = 7;
-const RUNS: usize = 5;
+const RUNS: usize = 7;
 
 struct SplitMix64(u64);
 
@@ -54,16 +54,16 @@ fn lognormal(n: usize, seed: u64) -> Vec<f64> {
     out
 }
 
-fn median<F: FnMut()>(mut f: F) -> Duration {
-    let mut times: Vec<Duration> = (0..RUNS)
-        .map(|_| {
-            let t = Instant::now();
-            f();
-            t.elapsed()
-        })
-        .collect();
-    times.sort();
-    times[RUNS / 2]
+fn time<F: FnMut()>(mut f: F) -> Duration {
+    let t = Instant::now();
+    f();
+    t.elapsed()
+}
+
+/// Median and minimum of a set of timings.
+fn stats(mut t: Vec<Duration>) -> (Duration, Duration) {
+    t.sort();
+    (t[t.len() / 2], t[0])
 }
 
 fn main() {
@@ -76,29 +76,34 @@ fn main() {
     let values = lognormal(N, 0x5EED_2026);
     let method = Method::NaturalBreaks { classes: K };
 
-    let sort = median(|| {
-        let mut v = values.clone();
-        v.sort_unstable_by(f64::total_cmp);
-        std::hint::black_box(&v);
-    });
-    let natural = median(|| {
-        let s = Sample::new(values.clone(), 0).unwrap();
-        std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
-    });
     let one = rayon::ThreadPoolBuilder::new()
         .num_threads(1)
         .build()
         .unwrap();
-    let natural_1 = one.install(|| {
-        median(|| {
-            let s = Sample::new(values.clone(), 0).unwrap();
-            std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
-        })
-    });
-    let full = median(|| {
+    let natural_run = || {
         let s = Sample::new(values.clone(), 0).unwrap();
-        std::hint::black_box(classify::classify(&s, &method, 20).unwrap());
-    });
+        std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
+    };
+    // Interleave the measurements so that a change in machine load hits
+    // the baseline and the method alike.
+    let (mut ts, mut tn, mut t1, mut tf) = (vec![], vec![], vec![], vec![]);
+    for _ in 0..RUNS {
+        ts.push(time(|| {
+            let mut v = values.clone();
+            v.sort_unstable_by(f64::total_cmp);
+            std::hint::black_box(&v);
+        }));
+        tn.push(time(natural_run));
+        t1.push(one.install(|| time(natural_run)));
+        tf.push(time(|| {
+            let s = Sample::new(values.clone(), 0).unwrap();
+            std::hint::black_box(classify::classify(&s, &method, 20).unwrap());
+        }));
+    }
+    let (sort, sort_min) = stats(ts);
+    let (natural, natural_min) = stats(tn);
+    let (natural_1, natural_1_min) = stats(t1);
+    let (full, full_min) = stats(tf);
     let s = Sample::new(values.clone(), 0).unwrap();
     let c = classify::classify(&s, &method, 20).unwrap();
     println!(
@@ -107,22 +112,24 @@ fn main() {
     );
     println!("  bounds {:?}", c.breaks);
     println!("  gvf {:.6}", c.gvf.unwrap_or(f64::NAN));
-    println!("  sort (baseline)              {:>9.1} ms", ms(sort));
     println!(
-        "  natural breaks               {:>9.1} ms  ratio {:.2}",
-        ms(natural),
-        ratio(natural, sort)
+        "  {:<28} {:>10} {:>10} {:>12} {:>9}",
+        "", "median ms", "min ms", "ratio(med)", "ratio(min)"
     );
-    println!(
-        "  natural breaks, one thread   {:>9.1} ms  ratio {:.2}",
-        ms(natural_1),
-        ratio(natural_1, sort)
-    );
-    println!(
-        "  full classification          {:>9.1} ms  ratio {:.2}",
-        ms(full),
-        ratio(full, sort)
-    );
+    for (name, med, min) in [
+        ("sort (baseline)", sort, sort_min),
+        ("natural breaks", natural, natural_min),
+        ("natural breaks, one thread", natural_1, natural_1_min),
+        ("full classification", full, full_min),
+    ] {
+        println!(
+            "  {name:<28} {:>10.1} {:>10.1} {:>12.2} {:>9.2}",
+            ms(med),
+            ms(min),
+            ratio(med, sort),
+            ratio(min, sort_min)
+        );
+    }
     println!("  aim: natural breaks at most 3x the sort");
 }
 
