@@ -632,3 +632,20 @@ fn unclassed_command_reports_ticks() {
     .unwrap_err();
     assert!(e.to_string().contains("--classes"), "{e}");
 }
+
+/// Rounding keeps a midpoint break and prints steps with their own decimals.
+#[test]
+fn rounding_keeps_midpoint_and_step_decimals() {
+    let v: Vec<f64> = (0..40).map(|i| f64::from(i) * 0.37 - 4.1).collect();
+    let sample = Sample::new(v, 0).unwrap();
+    let (b, rep) =
+        diverging::bounds(&sample, SideMethod::Quantile, 4, 2.5, Arrangement::Break).unwrap();
+    let mut c = classify::finish(&sample, "quantile", b, 5).unwrap();
+    c.midpoint = Some(rep);
+    let r = rounding::round(&sample, &c, RoundRule::Step(1.0)).unwrap();
+    assert!(r.breaks.contains(&2.5), "{:?}", r.breaks);
+    let q = rounding::round(&sample, &c, RoundRule::Step(0.25)).unwrap();
+    for b in &q.breaks {
+        assert_eq!((b * 4.0).fract(), 0.0, "{b} is a multiple of 0.25");
+    }
+}

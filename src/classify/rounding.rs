@@ -12,7 +12,8 @@
 //! increasing. [`RoundRule::Auto`] picks the coarsest power of ten that
 //! keeps them strictly increasing and keeps every interior bound inside
 //! the data range (min, max); [`RoundRule::Step`] uses the given step and
-//! fails if bounds would merge.
+//! fails if bounds would merge. A midpoint that is a class bound is never
+//! rounded.
 
 use serde::Serialize;
 
@@ -47,17 +48,26 @@ fn to_step(x: f64, step: f64, up: bool) -> f64 {
     let q = x / step;
     let q = if up { q.ceil() } else { q.round() };
     let v = q * step;
-    let decimals = (-step.log10().floor()).max(0.0) as usize;
+    // As many decimals as the step itself has (0.25 -> 2, 10 -> 0).
+    let text = step.to_string();
+    let decimals = text.split_once('.').map_or(0, |(_, f)| f.len());
     format!("{v:.decimals$}").parse().unwrap_or(v)
 }
 
-/// Round all bounds with one step; None if they stop increasing.
-fn round_all(upper: &[f64], step: f64) -> Option<Vec<f64>> {
+/// Round all bounds with one step, leaving a bound equal to `keep` (a
+/// midpoint that is a break) as it is; None if they stop increasing.
+fn round_all(upper: &[f64], step: f64, keep: Option<f64>) -> Option<Vec<f64>> {
     let n = upper.len();
     let out: Vec<f64> = upper
         .iter()
         .enumerate()
-        .map(|(i, &b)| to_step(b, step, i + 1 == n))
+        .map(|(i, &b)| {
+            if Some(b) == keep {
+                b
+            } else {
+                to_step(b, step, i + 1 == n)
+            }
+        })
         .collect();
     if out.windows(2).all(|w| w[0] < w[1]) {
         Some(out)
@@ -74,6 +84,11 @@ pub fn round(
     rule: RoundRule,
 ) -> Result<Classification, Error> {
     let upper = &c.breaks;
+    let keep = c
+        .midpoint
+        .as_ref()
+        .filter(|m| m.arrangement == super::diverging::Arrangement::Break)
+        .map(|m| m.value);
     let (step, rounded) = match rule {
         RoundRule::Step(step) => {
             if !(step.is_finite() && step > 0.0) {
@@ -82,7 +97,7 @@ pub fn round(
                     message: format!("expected 'auto' or a positive step such as 10, got {step}"),
                 });
             }
-            match round_all(upper, step) {
+            match round_all(upper, step, keep) {
                 Some(r) => (step, r),
                 None => {
                     return Err(Error::Usage {
@@ -106,7 +121,7 @@ pub fn round(
             let mut found = None;
             for p in (top - 15..=top).rev() {
                 let step = 10f64.powi(p);
-                if let Some(r) = round_all(upper, step) {
+                if let Some(r) = round_all(upper, step, keep) {
                     let n = r.len();
                     // An interior bound inside the data range must stay inside it.
                     let inside = r[..n - 1]

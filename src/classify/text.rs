@@ -46,7 +46,11 @@ pub fn render(c: &Classification) -> String {
     let _ = writeln!(s, "class  from (exclusive)  to (inclusive)  count");
     for (j, (&b, &n)) in c.breaks.iter().zip(&c.counts).enumerate() {
         let from = if j == 0 {
-            format!("{} (incl.)", c.min.min(b))
+            if c.min <= b {
+                format!("{} (incl.)", c.min)
+            } else {
+                "-inf".to_string()
+            }
         } else {
             format!("{}", c.breaks[j - 1])
         };
