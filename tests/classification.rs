@@ -280,7 +280,7 @@ proptest! {
         prop_assert_eq!(c.counts.iter().sum::<usize>(), sorted.len());
     }
 
-    /// The weighted-unique-value programme (SMAWK layers) on 60 random
+    /// The weighted-unique-value programme (divide-and-conquer layers) on 60 random
     /// values with ties, against the plain programme on the raw values.
     #[test]
     fn weighted_dp_agrees_with_partition_cost(seed in 0u64..1000) {
@@ -648,4 +648,57 @@ fn rounding_keeps_midpoint_and_step_decimals() {
     for b in &q.breaks {
         assert_eq!((b * 4.0).fract(), 0.0, "{b} is a multiple of 0.25");
     }
+}
+
+/// A larger case for the divide and conquer (3,000 values with ties, k = 7)
+/// against the plain O(k n^2) programme, here with prefix sums.
+#[test]
+fn natural_breaks_on_3000_values_equal_plain_programme() {
+    let mut s = 7u64;
+    let x: Vec<f64> = (0..3000)
+        .map(|_| {
+            s = s
+                .wrapping_mul(6364136223846793005)
+                .wrapping_add(1442695040888963407);
+            (((s >> 33) % 100_000) as f64 / 1000.0).powi(2).round() / 10.0
+        })
+        .collect();
+    let sample = Sample::new(x, 0).unwrap();
+    let v = sample.sorted();
+    let n = v.len();
+    let (mut p1, mut p2) = (vec![0.0; n + 1], vec![0.0; n + 1]);
+    let mean = v.iter().sum::<f64>() / n as f64;
+    for i in 0..n {
+        let d = v[i] - mean;
+        p1[i + 1] = p1[i] + d;
+        p2[i + 1] = p2[i] + d * d;
+    }
+    let ssd = |a: usize, b: usize| {
+        let d = p1[b] - p1[a];
+        (p2[b] - p2[a]) - d * d / (b - a) as f64
+    };
+    let k = 7;
+    let mut best = vec![f64::INFINITY; n + 1];
+    for (i, b) in best.iter_mut().enumerate().skip(1) {
+        *b = ssd(0, i);
+    }
+    for c in 2..=k {
+        let mut next = vec![f64::INFINITY; n + 1];
+        for i in c..=n {
+            for j in (c - 1)..i {
+                let val = best[j] + ssd(j, i);
+                if val < next[i] {
+                    next[i] = val;
+                }
+            }
+        }
+        best = next;
+    }
+    let c = classify::classify(&sample, &Method::NaturalBreaks { classes: k }, 5).unwrap();
+    assert!(
+        (c.sdcm - best[n]).abs() <= 1e-9 * c.sdam,
+        "sdcm {} plain programme {}",
+        c.sdcm,
+        best[n]
+    );
 }
