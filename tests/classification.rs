@@ -684,11 +684,11 @@ fn natural_breaks_on_3000_values_equal_plain_programme() {
     }
     for c in 2..=k {
         let mut next = vec![f64::INFINITY; n + 1];
-        for i in c..=n {
+        for (i, cell) in next.iter_mut().enumerate().skip(c) {
             for j in (c - 1)..i {
                 let val = best[j] + ssd(j, i);
-                if val < next[i] {
-                    next[i] = val;
+                if val < *cell {
+                    *cell = val;
                 }
             }
         }
