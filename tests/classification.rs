@@ -685,8 +685,8 @@ fn natural_breaks_on_3000_values_equal_plain_programme() {
     for c in 2..=k {
         let mut next = vec![f64::INFINITY; n + 1];
         for (i, cell) in next.iter_mut().enumerate().skip(c) {
-            for j in (c - 1)..i {
-                let val = best[j] + ssd(j, i);
+            for (j, &b) in best.iter().enumerate().take(i).skip(c - 1) {
+                let val = b + ssd(j, i);
                 if val < *cell {
                     *cell = val;
                 }
