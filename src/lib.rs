@@ -21,6 +21,9 @@
 //!   holds the finding kinds and their stable codes.
 //! - [`raster`]: SVG to pixels with resvg and the embedded font; PNG with
 //!   its DPI. [`output`] writes files atomically, never over an input.
+//! - [`classify`]: class breaks for classed maps (equal interval, quantile,
+//!   exact natural breaks, standard deviation, head/tail, manual), their fit,
+//!   rounding, diverging arrangement and unclassed positions.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
 //! - [`cli`]: the command line, a thin layer over the stages.
@@ -31,6 +34,7 @@
 #![forbid(unsafe_code)]
 #![warn(missing_docs)]
 
+pub mod classify;
 pub mod cli;
 pub mod color;
 pub mod error;

@@ -12,6 +12,7 @@ use clap::{Parser, Subcommand};
 
 use crate::error::{Error, ExitKind};
 
+mod breaks;
 mod inspect;
 mod palette;
 
@@ -32,6 +33,9 @@ pub enum Command {
     Inspect(inspect::InspectArgs),
     /// Generate, diagnose and repair colour schemes.
     Palette(palette::PaletteArgs),
+    /// Class breaks for a classed map from one column of a CSV file, with
+    /// counts and goodness of variance fit.
+    Breaks(breaks::BreaksArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -61,6 +65,7 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
     match cli.command {
         Command::Inspect(args) => inspect::run(args),
         Command::Palette(args) => palette::run(args),
+        Command::Breaks(args) => breaks::run(args),
     }
 }
 

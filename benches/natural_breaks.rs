@@ -1,0 +1,142 @@
+//! Natural breaks (exact Fisher-Jenks), k = 7, on 1,000,000 lognormal
+//! values, timed as a ratio to sorting the same values in the same run.
+//!
+//! Plain timing harness (`harness = false`): the measurements are
+//! interleaved, repeated, and reported as median and minimum. Printed:
+//!
+//! - `sort`: copying and sorting the values (`sort_unstable_by(total_cmp)`),
+//!   the baseline;
+//! - `natural`: building the sample (copy + the same sort) and the exact
+//!   natural breaks, with the default thread pool and with one thread;
+//! - `classify`: the full result (bounds, counts, GVF, histogram).
+//!
+//! The values are generated deterministically: splitmix64 uniforms,
+//! Box-Muller normals, exp(3 + z) (lognormal, mu = 3, sigma = 1).
+
+use std::time::{Duration, Instant};
+
+use hueproof::classify::{self, Method, Sample};
+
+const N: usize = 1_000_000;
+const K: usize = 7;
+const RUNS: usize = 7;
+
+struct SplitMix64(u64);
+
+impl SplitMix64 {
+    fn next_u64(&mut self) -> u64 {
+        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
+        let mut z = self.0;
+        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+        z ^ (z >> 31)
+    }
+
+    /// Uniform in (0, 1).
+    fn uniform(&mut self) -> f64 {
+        ((self.next_u64() >> 11) as f64 + 0.5) / (1u64 << 53) as f64
+    }
+}
+
+fn lognormal(n: usize, seed: u64) -> Vec<f64> {
+    let mut rng = SplitMix64(seed);
+    let mut out = Vec::with_capacity(n);
+    while out.len() < n {
+        let (u1, u2) = (rng.uniform(), rng.uniform());
+        let r = (-2.0 * u1.ln()).sqrt();
+        let t = std::f64::consts::TAU * u2;
+        for z in [r * t.cos(), r * t.sin()] {
+            if out.len() < n {
+                out.push((3.0 + z).exp());
+            }
+        }
+    }
+    out
+}
+
+fn time<F: FnMut()>(mut f: F) -> Duration {
+    let t = Instant::now();
+    f();
+    t.elapsed()
+}
+
+/// Median and minimum of a set of timings.
+fn stats(mut t: Vec<Duration>) -> (Duration, Duration) {
+    t.sort();
+    (t[t.len() / 2], t[0])
+}
+
+fn main() {
+    // `cargo bench` passes `--bench`; `cargo test --benches` passes nothing
+    // useful either; run the measurement only when benchmarking.
+    if !std::env::args().any(|a| a == "--bench") {
+        println!("natural_breaks: run with `cargo bench --bench natural_breaks`");
+        return;
+    }
+    let values = lognormal(N, 0x5EED_2026);
+    let method = Method::NaturalBreaks { classes: K };
+
+    let one = rayon::ThreadPoolBuilder::new()
+        .num_threads(1)
+        .build()
+        .unwrap();
+    let natural_run = || {
+        let s = Sample::new(values.clone(), 0).unwrap();
+        std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
+    };
+    // Interleave the measurements so that a change in machine load hits
+    // the baseline and the method alike.
+    let (mut ts, mut tn, mut t1, mut tf) = (vec![], vec![], vec![], vec![]);
+    for _ in 0..RUNS {
+        ts.push(time(|| {
+            let mut v = values.clone();
+            v.sort_unstable_by(f64::total_cmp);
+            std::hint::black_box(&v);
+        }));
+        tn.push(time(natural_run));
+        t1.push(one.install(|| time(natural_run)));
+        tf.push(time(|| {
+            let s = Sample::new(values.clone(), 0).unwrap();
+            std::hint::black_box(classify::classify(&s, &method, 20).unwrap());
+        }));
+    }
+    let (sort, sort_min) = stats(ts);
+    let (natural, natural_min) = stats(tn);
+    let (natural_1, natural_1_min) = stats(t1);
+    let (full, full_min) = stats(tf);
+    let s = Sample::new(values.clone(), 0).unwrap();
+    let c = classify::classify(&s, &method, 20).unwrap();
+    println!(
+        "natural_breaks: n = {N}, k = {K}, median of {RUNS} runs, {} threads available",
+        rayon::current_num_threads()
+    );
+    println!("  bounds {:?}", c.breaks);
+    println!("  gvf {:.6}", c.gvf.unwrap_or(f64::NAN));
+    println!(
+        "  {:<28} {:>10} {:>10} {:>12} {:>9}",
+        "", "median ms", "min ms", "ratio(med)", "ratio(min)"
+    );
+    for (name, med, min) in [
+        ("sort (baseline)", sort, sort_min),
+        ("natural breaks", natural, natural_min),
+        ("natural breaks, one thread", natural_1, natural_1_min),
+        ("full classification", full, full_min),
+    ] {
+        println!(
+            "  {name:<28} {:>10.1} {:>10.1} {:>12.2} {:>9.2}",
+            ms(med),
+            ms(min),
+            ratio(med, sort),
+            ratio(min, sort_min)
+        );
+    }
+    println!("  aim: natural breaks at most 3x the sort");
+}
+
+fn ms(d: Duration) -> f64 {
+    d.as_secs_f64() * 1e3
+}
+
+fn ratio(a: Duration, b: Duration) -> f64 {
+    a.as_secs_f64() / b.as_secs_f64()
+}

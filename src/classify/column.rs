@@ -1,0 +1,187 @@
+//! Reading one numeric column of a CSV file into a [`Sample`].
+//!
+//! - The first record is the header; the column is chosen by its name.
+//! - Numbers are read without locale: an optional sign, digits with an
+//!   optional `.` decimal point, and an optional exponent (`1e3`, `2.5E-4`).
+//!   Surrounding spaces are ignored. A decimal comma (`1,5`), thousands
+//!   separators, `inf` and any other text are errors that name the file,
+//!   the line and the column.
+//! - Cells equal (after trimming spaces) to one of the missing-value markers
+//!   are counted as missing and never enter a class. The default markers
+//!   are the empty cell, `NA` and `NaN` ([`DEFAULT_MISSING`]); they are
+//!   compared exactly (case matters).
+//! - A UTF-8 byte-order mark at the start of the file is ignored.
+
+use std::path::Path;
+
+use super::Sample;
+use crate::error::Error;
+
+/// The missing-value markers used when none are given.
+pub const DEFAULT_MISSING: &[&str] = &["", "NA", "NaN"];
+
+/// What to read.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ColumnSpec {
+    /// The header name of the column.
+    pub column: String,
+    /// The field delimiter (`b','` unless told otherwise).
+    pub delimiter: u8,
+    /// Cells that mean "missing".
+    pub missing: Vec<String>,
+}
+
+impl ColumnSpec {
+    /// Read column `column` with a comma delimiter and the default markers.
+    pub fn new(column: &str) -> ColumnSpec {
+        ColumnSpec {
+            column: column.to_string(),
+            delimiter: b',',
+            missing: DEFAULT_MISSING.iter().map(|s| s.to_string()).collect(),
+        }
+    }
+}
+
+/// Read the column from the file at `path`.
+pub fn read(path: &Path, spec: &ColumnSpec) -> Result<Sample, Error> {
+    let bytes = std::fs::read(path).map_err(|source| Error::Read {
+        path: path.to_path_buf(),
+        source,
+    })?;
+    parse(&bytes, path, spec)
+}
+
+/// Parse the column from CSV `bytes`; `path` names the file in messages.
+pub fn parse(bytes: &[u8], path: &Path, spec: &ColumnSpec) -> Result<Sample, Error> {
+    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
+    let invalid = |location: Option<String>, message: String| Error::Invalid {
+        path: path.to_path_buf(),
+        location,
+        message,
+    };
+    let mut reader = csv::ReaderBuilder::new()
+        .delimiter(spec.delimiter)
+        .has_headers(true)
+        .from_reader(bytes);
+    let headers = reader
+        .headers()
+        .map_err(|e| {
+            invalid(
+                Some("line 1".into()),
+                format!("cannot read the header: {e}"),
+            )
+        })?
+        .clone();
+    let col = headers
+        .iter()
+        .position(|h| h.trim() == spec.column)
+        .ok_or_else(|| {
+            let names: Vec<String> = headers.iter().map(|h| format!("'{h}'")).collect();
+            invalid(
+                Some("line 1".into()),
+                format!(
+                    "no column named '{}'; the header has {}",
+                    spec.column,
+                    names.join(", ")
+                ),
+            )
+        })?;
+    let mut values = Vec::new();
+    let mut missing = 0usize;
+    let mut record = csv::StringRecord::new();
+    loop {
+        match reader.read_record(&mut record) {
+            Ok(false) => break,
+            Ok(true) => {}
+            Err(e) => {
+                let line = e.position().map(|p| p.line()).unwrap_or(0);
+                return Err(invalid(
+                    Some(format!("line {line}")),
+                    format!("not a valid CSV record: {e}"),
+                ));
+            }
+        }
+        let line = record.position().map(|p| p.line()).unwrap_or(0);
+        let cell = record.get(col).unwrap_or("");
+        let cell = cell.trim();
+        if spec.missing.iter().any(|m| m.trim() == cell) {
+            missing += 1;
+            continue;
+        }
+        match parse_number(cell) {
+            Ok(v) => values.push(v),
+            Err(why) => {
+                return Err(invalid(
+                    Some(format!(
+                        "line {line}, column {} ('{}')",
+                        col + 1,
+                        spec.column
+                    )),
+                    why,
+                ));
+            }
+        }
+    }
+    Sample::new(values, missing)
+}
+
+/// Parse one number in the documented syntax, or say what is wrong.
+pub fn parse_number(cell: &str) -> Result<f64, String> {
+    if is_plain_number(cell) {
+        return cell
+            .parse::<f64>()
+            .ok()
+            .filter(|v| v.is_finite())
+            .ok_or_else(|| format!("'{cell}' is out of the range of a 64-bit float"));
+    }
+    if cell.is_empty() {
+        return Err(
+            "empty cell, and the empty cell is not a missing-value marker here; expected a number"
+                .into(),
+        );
+    }
+    if cell.contains(',') && is_plain_number(&cell.replace(',', ".")) {
+        return Err(format!(
+            "'{cell}' is not a number: the decimal point must be '.', not ','"
+        ));
+    }
+    Err(format!(
+        "'{cell}' is not a number (expected e.g. 12, -3.5 or 1.2e3) nor a missing-value marker"
+    ))
+}
+
+/// Sign, digits with at most one '.', at least one digit, optional exponent.
+fn is_plain_number(s: &str) -> bool {
+    let b = s.as_bytes();
+    let mut i = 0;
+    if i < b.len() && (b[i] == b'+' || b[i] == b'-') {
+        i += 1;
+    }
+    let mut digits = 0;
+    let mut dot = false;
+    while i < b.len() {
+        match b[i] {
+            b'0'..=b'9' => digits += 1,
+            b'.' if !dot => dot = true,
+            _ => break,
+        }
+        i += 1;
+    }
+    if digits == 0 {
+        return false;
+    }
+    if i < b.len() && (b[i] == b'e' || b[i] == b'E') {
+        i += 1;
+        if i < b.len() && (b[i] == b'+' || b[i] == b'-') {
+            i += 1;
+        }
+        let start = i;
+        while i < b.len() && b[i].is_ascii_digit() {
+            i += 1;
+        }
+        if i == start {
+            return false;
+        }
+    }
+    i == b.len()
+}

@@ -1,0 +1,291 @@
+//! Exact optimal natural breaks (Fisher 1958, "On grouping for maximum
+//! homogeneity", JASA 53(284); popularised for maps by Jenks 1977).
+//!
+//! The values are split into k consecutive classes (in sorted order) that
+//! minimise the sum over classes of squared deviations from the class mean
+//! (SDCM). The optimum is found exactly, without sampling:
+//!
+//! 1. Repeated values are collapsed into weighted unique values (a class
+//!    never splits a block of equal values, since bounds are
+//!    upper-inclusive), which leaves m <= n points.
+//! 2. With prefix sums of weight, weighted value and weighted squared value
+//!    (of values centred on their mean, to keep the differences accurate),
+//!    the cost of any class is O(1).
+//! 3. The dynamic programme D[c][i] = min_j D[c-1][j] + cost(j, i) is solved
+//!    layer by layer. The cost is a Monge array (the within-class sum of
+//!    squares satisfies the quadrangle inequality), so the leftmost
+//!    optimal j is non-decreasing in i, and each layer is solved by divide
+//!    and conquer over that monotone argmin in O(m log m). The last layer
+//!    needs one cell only, O(m). Total O(k m log m) time after sorting and
+//!    O(k m) memory for the back-pointers. Class weights are whole numbers,
+//!    so the inner loop multiplies by a tabulated reciprocal instead of
+//!    dividing (the entries then differ from a division by at most an ulp),
+//!    and large layers are split across threads.
+//!
+//! The bounds reported are the largest value of each class, so they are
+//! actual data values. With fewer distinct values than classes, each
+//! distinct value gets its own class and a warning says so.
+
+use super::{Bounds, check_classes};
+use crate::error::Error;
+
+/// Upper bounds of the optimal `classes`-class partition of sorted `x`.
+pub fn bounds(x: &[f64], classes: usize) -> Result<Bounds, Error> {
+    check_classes(classes)?;
+    let (values, weights) = unique_weighted(x);
+    let mut warnings = Vec::new();
+    let k = if values.len() < classes {
+        warnings.push(format!(
+            "only {} distinct value(s): {} classes instead of {classes}",
+            values.len(),
+            values.len()
+        ));
+        values.len()
+    } else {
+        classes
+    };
+    let ends = optimal_ends(&values, &weights, k);
+    let upper = ends.iter().map(|&e| values[e - 1]).collect();
+    Ok(Bounds { upper, warnings })
+}
+
+/// Collapse sorted values into unique values and their multiplicities.
+pub fn unique_weighted(x: &[f64]) -> (Vec<f64>, Vec<f64>) {
+    let mut values: Vec<f64> = Vec::new();
+    let mut weights: Vec<f64> = Vec::new();
+    for &v in x {
+        match values.last() {
+            Some(&last) if last == v => *weights.last_mut().unwrap_or(&mut 0.0) += 1.0,
+            _ => {
+                values.push(v);
+                weights.push(1.0);
+            }
+        }
+    }
+    (values, weights)
+}
+
+/// Prefix sums for O(1) class costs over weighted points.
+struct Prefix {
+    w: Vec<f64>,
+    s1: Vec<f64>,
+    s2: Vec<f64>,
+}
+
+impl Prefix {
+    fn new(values: &[f64], weights: &[f64]) -> Prefix {
+        let total: f64 = weights.iter().sum();
+        let centre = values.iter().zip(weights).map(|(v, w)| v * w).sum::<f64>() / total;
+        let m = values.len();
+        let (mut w, mut s1, mut s2) = (
+            Vec::with_capacity(m + 1),
+            Vec::with_capacity(m + 1),
+            Vec::with_capacity(m + 1),
+        );
+        let (mut aw, mut a1, mut a2) = (0.0, 0.0, 0.0);
+        w.push(0.0);
+        s1.push(0.0);
+        s2.push(0.0);
+        for (v, wt) in values.iter().zip(weights) {
+            let d = v - centre;
+            aw += wt;
+            a1 += wt * d;
+            a2 += wt * d * d;
+            w.push(aw);
+            s1.push(a1);
+            s2.push(a2);
+        }
+        Prefix { w, s1, s2 }
+    }
+
+    /// Within-class sum of squares of points [j, i) (j < i).
+    #[inline(always)]
+    fn cost(&self, j: usize, i: usize) -> f64 {
+        let dw = self.w[i] - self.w[j];
+        let d1 = self.s1[i] - self.s1[j];
+        let c = (self.s2[i] - self.s2[j]) - d1 * d1 / dw;
+        if c > 0.0 { c } else { 0.0 }
+    }
+}
+
+/// Exclusive end indices (into `values`) of the k optimal classes; the last
+/// is `values.len()`. Requires 1 <= k <= values.len() and whole-number
+/// weights (multiplicities).
+pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
+    let m = values.len();
+    debug_assert!(k >= 1 && k <= m);
+    if k == 1 {
+        return vec![m];
+    }
+    if k == m {
+        return (1..=m).collect();
+    }
+    let p = Prefix::new(values, weights);
+    let layer = Layer::new(&p);
+    // prev[i] = D[c-1][i] for i in 0..=m (cost of the best (c-1)-class split of
+    // the first i points); unreachable cells are +inf.
+    let mut prev: Vec<f64> = (0..=m)
+        .map(|i| if i == 0 { f64::INFINITY } else { p.cost(0, i) })
+        .collect();
+    let mut cur = vec![f64::INFINITY; m + 1];
+    let mut q = vec![0.0; m + 1];
+    // back[c - 2][i] = start of the last class in the best c-class split of
+    // the first i points, for layers c = 2..k-1.
+    let mut back: Vec<Vec<u32>> = Vec::with_capacity(k.saturating_sub(2));
+    for c in 2..k {
+        let mut arg = vec![0u32; m + 1];
+        // q[j] = D[c-1][j] - S2[j]: the part of an entry that depends on j only.
+        for (qj, (d, s2)) in q.iter_mut().zip(prev.iter().zip(&p.s2)) {
+            *qj = d - s2;
+        }
+        // Rows i = c..=m - (k - c): later rows cannot lead to a k-class split.
+        // Columns j = c - 1..i (the start of the last class).
+        let (lo, hi) = (c, m - (k - c));
+        cur.iter_mut().for_each(|v| *v = f64::INFINITY);
+        let job = Job {
+            layer: &layer,
+            q: &q,
+        };
+        job.solve(&mut cur[lo..=hi], &mut arg[lo..=hi], lo, c - 1, hi - 1);
+        back.push(arg);
+        std::mem::swap(&mut prev, &mut cur);
+    }
+    // Last layer: one cell, i = m.
+    let mut best = f64::INFINITY;
+    let mut best_j = k - 1;
+    for (j, &d) in prev.iter().enumerate().take(m).skip(k - 1) {
+        let v = d + p.cost(j, m);
+        if v < best {
+            best = v;
+            best_j = j;
+        }
+    }
+    let mut ends = vec![0usize; k];
+    ends[k - 1] = m;
+    let mut j = best_j;
+    for c in (1..k).rev() {
+        ends[c - 1] = j;
+        if c >= 2 {
+            j = back[c - 2][j] as usize;
+        }
+    }
+    ends
+}
+
+/// What every layer shares: the prefix sums, whole-number prefix weights and
+/// a table of reciprocals 1/d (class weights are whole numbers d <= n, so a
+/// multiplication replaces the division in the inner loop).
+struct Layer<'a> {
+    p: &'a Prefix,
+    wint: Vec<u32>,
+    inv: Vec<f64>,
+}
+
+impl<'a> Layer<'a> {
+    fn new(p: &'a Prefix) -> Layer<'a> {
+        let wint: Vec<u32> = p.w.iter().map(|&w| w.round() as u32).collect();
+        let total = *wint.last().unwrap_or(&0) as usize;
+        let inv = (0..=total)
+            .map(|d| if d == 0 { 0.0 } else { 1.0 / d as f64 })
+            .collect();
+        Layer { p, wint, inv }
+    }
+}
+
+/// One layer of the programme: rows i, columns j (start of the last class),
+/// entry q[j] - (S1[i] - S1[j])^2 / (W[i] - W[j]) (+ S2[i], constant in a
+/// row). The cost is Monge, so the leftmost argmin is non-decreasing in i.
+struct Job<'a> {
+    layer: &'a Layer<'a>,
+    q: &'a [f64],
+}
+
+/// Row blocks at least this large are split across threads.
+const PARALLEL_ROWS: usize = 1 << 15;
+
+impl Job<'_> {
+    /// Fill `out[r]`, `arg[r]` for rows i = row0 + r with the minimum over
+    /// j in [jlo, min(jhi, i - 1)], by divide and conquer over the monotone
+    /// argmin.
+    fn solve(&self, out: &mut [f64], arg: &mut [u32], row0: usize, jlo: usize, jhi: usize) {
+        if out.is_empty() {
+            return;
+        }
+        let mid = out.len() / 2;
+        let i = row0 + mid;
+        let (best, best_j) = self.row_min(i, jlo, jhi.min(i - 1));
+        out[mid] = best + self.layer.p.s2[i];
+        arg[mid] = best_j as u32;
+        let (out_l, out_r) = out.split_at_mut(mid);
+        let (arg_l, arg_r) = arg.split_at_mut(mid);
+        let (out_r, arg_r) = (&mut out_r[1..], &mut arg_r[1..]);
+        if out_l.len() + out_r.len() >= PARALLEL_ROWS {
+            rayon::join(
+                || self.solve(out_l, arg_l, row0, jlo, best_j),
+                || self.solve(out_r, arg_r, i + 1, best_j, jhi),
+            );
+        } else {
+            self.solve(out_l, arg_l, row0, jlo, best_j);
+            self.solve(out_r, arg_r, i + 1, best_j, jhi);
+        }
+    }
+
+    /// Minimum (without the row constant) and leftmost argmin of row i over
+    /// columns a..=b. Four independent lanes keep the pipeline full.
+    #[inline]
+    fn row_min(&self, i: usize, a: usize, b: usize) -> (f64, usize) {
+        let l = self.layer;
+        let (s1i, wi) = (l.p.s1[i], l.wint[i]);
+        let q = &self.q[a..=b];
+        let s1 = &l.p.s1[a..=b];
+        let w = &l.wint[a..=b];
+        let inv = &l.inv[..=wi as usize];
+        let entry = |qj: f64, s1j: f64, wj: u32| {
+            let d = s1i - s1j;
+            qj - d * d * inv[(wi - wj) as usize]
+        };
+        let mut best = [f64::INFINITY; 4];
+        let mut at = [0usize; 4];
+        let full = q.len() / 4 * 4;
+        for c in (0..full).step_by(4) {
+            for lane in 0..4 {
+                let j = c + lane;
+                let v = entry(q[j], s1[j], w[j]);
+                if v < best[lane] {
+                    best[lane] = v;
+                    at[lane] = j;
+                }
+            }
+        }
+        let (mut b_v, mut b_j) = (f64::INFINITY, usize::MAX);
+        for lane in 0..4 {
+            if best[lane] < b_v || (best[lane] == b_v && at[lane] < b_j) {
+                b_v = best[lane];
+                b_j = at[lane];
+            }
+        }
+        for j in full..q.len() {
+            let v = entry(q[j], s1[j], w[j]);
+            if v < b_v {
+                b_v = v;
+                b_j = j;
+            }
+        }
+        if b_j == usize::MAX {
+            b_j = 0;
+        }
+        (b_v, a + b_j)
+    }
+}
+
+/// SDCM of the partition of weighted points given by exclusive `ends`.
+pub fn partition_cost(values: &[f64], weights: &[f64], ends: &[usize]) -> f64 {
+    let p = Prefix::new(values, weights);
+    let mut start = 0;
+    let mut total = 0.0;
+    for &e in ends {
+        total += p.cost(start, e);
+        start = e;
+    }
+    total
+}
