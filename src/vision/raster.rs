@@ -146,18 +146,30 @@ fn simulate_chunk_with<const HALF_PLANES: bool>(k: &Kernel, chunk: &mut [u8]) {
     let mut memo_in = 0u32;
     let [r, g, b] = transform_pixel(k, dec, enc, 0, 0, 0);
     let mut memo_out = key(&[r, g, b, 0]);
+    // The last block seen, before and after: flat fills repeat whole blocks
+    // (alpha included), which a 64-byte compare and copy handle.
+    let mut block_in = [0u8; 4 * LANES];
+    let mut block_out = [0u8; 4 * LANES];
+    let mut have_block = false;
     let mut blocks = chunk.chunks_exact_mut(4 * LANES);
     for block in &mut blocks {
+        if have_block && *block == block_in {
+            block.copy_from_slice(&block_out);
+            continue;
+        }
+        block_in.copy_from_slice(block);
+        have_block = true;
         if block.chunks_exact(4).all(|px| key(px) == memo_in) {
             for px in block.chunks_exact_mut(4) {
                 put(px, memo_out);
             }
-            continue;
+        } else {
+            let last = block.len() - 4;
+            memo_in = key(&block[last..]);
+            transform_block::<HALF_PLANES>(k, dec, enc, block);
+            memo_out = key(&block[last..]);
         }
-        let last = block.len() - 4;
-        memo_in = key(&block[last..]);
-        transform_block::<HALF_PLANES>(k, dec, enc, block);
-        memo_out = key(&block[last..]);
+        block_out.copy_from_slice(block);
     }
     for px in blocks.into_remainder().chunks_exact_mut(4) {
         let out = transform_pixel(k, dec, enc, px[0], px[1], px[2]);
