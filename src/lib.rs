@@ -17,6 +17,10 @@
 //!   differences, WCAG contrast and alpha compositing. Pure maths.
 //! - [`vision`]: simulated colour vision (Machado 2009, Brettel 1997,
 //!   Viénot 1999, achromatopsia) for single colours and RGBA8 rasters.
+//! - [`geo`]: GeoJSON input, the validated feature model, map projections
+//!   and planar measures (area, centroid, label point).
+//! - [`table`]: CSV data tables with typed, locale-free numbers.
+//! - [`join`]: shapes joined to table rows by key, and the join report.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
 //! - [`cli`]: the command line, a thin layer over the stages.
@@ -30,8 +34,11 @@
 pub mod cli;
 pub mod color;
 pub mod error;
+pub mod geo;
 pub mod inspect;
+pub mod join;
 pub mod report;
+pub mod table;
 pub mod vision;
 
 pub use error::{Error, ExitKind};

@@ -13,6 +13,8 @@ use clap::{Parser, Subcommand};
 use crate::error::{Error, ExitKind};
 
 mod inspect;
+mod join;
+mod shapes;
 
 /// hueproof: colours that fit the data, proven on the rendered figure.
 #[derive(Debug, Parser)]
@@ -29,6 +31,11 @@ pub enum Command {
     /// Measure colours: CIELAB, OKLCH, luminance, contrast, and how they look
     /// under simulated colour-vision deficiencies.
     Inspect(inspect::InspectArgs),
+    /// Join shapes to data rows by key and report every mismatch.
+    Join(join::JoinArgs),
+    /// Report the projection, area, label point, parts and vertices of each
+    /// shape, and every geometry problem.
+    Shapes(shapes::ShapesArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -57,6 +64,8 @@ impl Outcome {
 pub fn run(cli: Cli) -> Result<Outcome, Error> {
     match cli.command {
         Command::Inspect(args) => inspect::run(args),
+        Command::Join(args) => join::run(args),
+        Command::Shapes(args) => shapes::run(args),
     }
 }
 

@@ -1,0 +1,137 @@
+//! `hueproof shapes SHAPES`: projection, per-feature measures and geometry
+//! problems of a boundary file.
+
+use std::path::PathBuf;
+
+use clap::{Args, ValueEnum};
+
+use crate::error::{Error, ExitKind};
+use crate::geo::projection::{Ellipsoid, ProjectionName};
+use crate::geo::shapes::{ShapesRequest, render_text, summarise};
+use crate::geo::{CoordinateKind, KeySource, ReadOptions, read_geojson_file};
+
+use super::Outcome;
+
+/// Arguments of `shapes`.
+#[derive(Debug, Args)]
+pub struct ShapesArgs {
+    /// Boundary or point file (GeoJSON).
+    #[arg(value_name = "SHAPES")]
+    pub shapes: PathBuf,
+    /// Feature property holding the key (`id` falls back to the feature
+    /// id); default: the feature's index.
+    #[arg(long, value_name = "K")]
+    pub key: Option<String>,
+    /// Projection (default: an equal-area one chosen from the extent).
+    #[arg(long, value_enum, value_name = "NAME")]
+    pub projection: Option<ProjectionArg>,
+    /// Figure of the Earth.
+    #[arg(long, value_enum, default_value = "wgs84")]
+    pub ellipsoid: EllipsoidArg,
+    /// Fix problems with a well-defined repair (close rings, drop
+    /// degenerate rings, keep empty features).
+    #[arg(long)]
+    pub repair: bool,
+    /// Split edges longer than DEG degrees before projecting (0: off).
+    #[arg(long, value_name = "DEG", default_value_t = 0.0)]
+    pub densify: f64,
+    /// Print one JSON object instead of text.
+    #[arg(long)]
+    pub json: bool,
+}
+
+/// Projection names on the command line.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum ProjectionArg {
+    /// Equirectangular (not equal-area).
+    Equirectangular,
+    /// Web Mercator, EPSG:3857 (not equal-area).
+    WebMercator,
+    /// Albers equal-area conic.
+    Albers,
+    /// Lambert azimuthal equal-area.
+    LambertAzimuthal,
+    /// Equal Earth.
+    EqualEarth,
+    /// Data already projected: coordinates used as they are.
+    Planar,
+}
+
+impl From<ProjectionArg> for ProjectionName {
+    fn from(p: ProjectionArg) -> Self {
+        match p {
+            ProjectionArg::Equirectangular => ProjectionName::Equirectangular,
+            ProjectionArg::WebMercator => ProjectionName::WebMercator,
+            ProjectionArg::Albers => ProjectionName::Albers,
+            ProjectionArg::LambertAzimuthal => ProjectionName::LambertAzimuthal,
+            ProjectionArg::EqualEarth => ProjectionName::EqualEarth,
+            ProjectionArg::Planar => ProjectionName::Planar,
+        }
+    }
+}
+
+/// Ellipsoid names on the command line.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum EllipsoidArg {
+    /// WGS84 ellipsoid.
+    Wgs84,
+    /// Sphere of the WGS84 authalic radius, 6371007.181 m.
+    Sphere,
+}
+
+/// Run `shapes`.
+pub fn run(args: ShapesArgs) -> Result<Outcome, Error> {
+    let projection = args.projection.map(ProjectionName::from);
+    if !(args.densify >= 0.0 && args.densify.is_finite()) {
+        return Err(Error::Usage {
+            what: "--densify".into(),
+            message: format!(
+                "expected a non-negative number of degrees, got {}",
+                args.densify
+            ),
+        });
+    }
+    let coordinates = if projection == Some(ProjectionName::Planar) {
+        CoordinateKind::Planar
+    } else {
+        CoordinateKind::Geographic
+    };
+    let layer = read_geojson_file(
+        &args.shapes,
+        &ReadOptions {
+            key: args.key.clone().map(KeySource::Property),
+            repair: args.repair,
+            coordinates,
+        },
+    )?;
+    let ellipsoid = match args.ellipsoid {
+        EllipsoidArg::Wgs84 => Ellipsoid::wgs84(),
+        EllipsoidArg::Sphere => Ellipsoid::authalic_sphere(),
+    };
+    let req = ShapesRequest {
+        projection,
+        ellipsoid,
+        densify_degrees: args.densify,
+    };
+    let rep = summarise(&layer, &req).map_err(|message| Error::Usage {
+        what: "--projection".into(),
+        message,
+    })?;
+    let stdout = if args.json {
+        let mut s = serde_json::to_string_pretty(&rep)
+            .map_err(|e| Error::Internal(format!("serialising the shapes report: {e}")))?;
+        s.push('\n');
+        s
+    } else {
+        render_text(&rep)
+    };
+    Ok(Outcome {
+        stdout,
+        warnings: rep.warnings.clone(),
+        kind: if rep.unrepaired > 0 {
+            ExitKind::Findings
+        } else {
+            ExitKind::Success
+        },
+    })
+}

@@ -1,0 +1,19 @@
+//! The geographic stage: reading boundary and point data (GeoJSON), the
+//! validated feature model, map projections, and planar measures (area,
+//! centroid, interior label point) of projected shapes.
+//!
+//! Flow: file -> [`geojson_read`] (with [`validate`]) -> [`model::Layer`]
+//! -> [`projection`] -> [`measure`]. [`shapes`] puts these together for
+//! `hueproof shapes`.
+
+pub mod densify;
+pub mod extent;
+pub mod geojson_read;
+pub mod measure;
+pub mod model;
+pub mod projection;
+pub mod shapes;
+pub(crate) mod validate;
+
+pub use geojson_read::{KeySource, ReadOptions, read_geojson_file, read_geojson_str};
+pub use model::{Coord, CoordinateKind, Feature, Geometry, Layer, Polygon, Problem, ProblemKind};

@@ -1,0 +1,238 @@
+//! Map projections from longitude/latitude (degrees) to planar metres, one
+//! file per projection, plus the defaults chosen from the data's extent.
+//!
+//! Every projection reduces λ − λ0 into [−180°, 180°] the way PROJ does
+//! (values already inside are kept, so +180° stays +180° when λ0 = 0), and
+//! returns `None` where it has no value (the antipode of an azimuthal
+//! centre). Axis order is always (lon, lat) -> (x = easting, y = northing).
+
+pub mod albers;
+pub mod choose;
+pub mod ellipsoid;
+pub mod equal_earth;
+pub mod equirectangular;
+pub mod lambert_azimuthal;
+pub mod planar;
+pub mod web_mercator;
+
+use std::collections::BTreeMap;
+use std::fmt;
+use std::str::FromStr;
+
+pub use albers::Albers;
+pub use choose::{Purpose, choose_projection};
+pub use ellipsoid::Ellipsoid;
+pub use equal_earth::EqualEarth;
+pub use equirectangular::Equirectangular;
+pub use lambert_azimuthal::LambertAzimuthal;
+pub use planar::Planar;
+pub use web_mercator::{WEB_MERCATOR_MAX_LAT, WebMercator};
+
+use crate::geo::model::{Coord, Geometry};
+
+/// Reduce an angle in radians into [−π, π] as PROJ's `adjlon` does: an
+/// angle already within π (plus a hair) is returned unchanged.
+pub fn wrap_lambda(lam: f64) -> f64 {
+    use std::f64::consts::PI;
+    if lam.abs() < PI + 1e-12 {
+        return lam;
+    }
+    let t = lam + PI;
+    t - 2.0 * PI * (t / (2.0 * PI)).floor() - PI
+}
+
+/// The projection names accepted on the command line.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord)]
+pub enum ProjectionName {
+    /// Equirectangular (not equal-area).
+    Equirectangular,
+    /// Web Mercator, EPSG:3857 (not equal-area).
+    WebMercator,
+    /// Albers equal-area conic.
+    Albers,
+    /// Lambert azimuthal equal-area.
+    LambertAzimuthal,
+    /// Equal Earth.
+    EqualEarth,
+    /// Already-projected data.
+    Planar,
+}
+
+impl ProjectionName {
+    /// Every name, in documentation order.
+    pub const ALL: [ProjectionName; 6] = [
+        ProjectionName::Equirectangular,
+        ProjectionName::WebMercator,
+        ProjectionName::Albers,
+        ProjectionName::LambertAzimuthal,
+        ProjectionName::EqualEarth,
+        ProjectionName::Planar,
+    ];
+
+    /// The command-line spelling.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            ProjectionName::Equirectangular => "equirectangular",
+            ProjectionName::WebMercator => "web-mercator",
+            ProjectionName::Albers => "albers",
+            ProjectionName::LambertAzimuthal => "lambert-azimuthal",
+            ProjectionName::EqualEarth => "equal-earth",
+            ProjectionName::Planar => "planar",
+        }
+    }
+
+    /// Whether areas on the map are proportional to areas on the ground.
+    /// `planar` counts as equal-area: it keeps whatever the data has.
+    pub fn is_equal_area(self) -> bool {
+        !matches!(
+            self,
+            ProjectionName::Equirectangular | ProjectionName::WebMercator
+        )
+    }
+}
+
+impl fmt::Display for ProjectionName {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        f.write_str(self.as_str())
+    }
+}
+
+impl FromStr for ProjectionName {
+    type Err = String;
+    fn from_str(s: &str) -> Result<Self, String> {
+        ProjectionName::ALL
+            .into_iter()
+            .find(|n| n.as_str() == s)
+            .ok_or_else(|| {
+                let names: Vec<&str> = ProjectionName::ALL.iter().map(|n| n.as_str()).collect();
+                format!(
+                    "unknown projection '{s}'; expected one of {}",
+                    names.join(", ")
+                )
+            })
+    }
+}
+
+/// A projection with all its parameters.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Projection {
+    /// See [`Equirectangular`].
+    Equirectangular(Equirectangular),
+    /// See [`WebMercator`].
+    WebMercator(WebMercator),
+    /// See [`Albers`].
+    Albers(Albers),
+    /// See [`LambertAzimuthal`].
+    LambertAzimuthal(LambertAzimuthal),
+    /// See [`EqualEarth`].
+    EqualEarth(EqualEarth),
+    /// See [`Planar`].
+    Planar(Planar),
+}
+
+impl Projection {
+    /// Its name.
+    pub fn name(&self) -> ProjectionName {
+        match self {
+            Projection::Equirectangular(_) => ProjectionName::Equirectangular,
+            Projection::WebMercator(_) => ProjectionName::WebMercator,
+            Projection::Albers(_) => ProjectionName::Albers,
+            Projection::LambertAzimuthal(_) => ProjectionName::LambertAzimuthal,
+            Projection::EqualEarth(_) => ProjectionName::EqualEarth,
+            Projection::Planar(_) => ProjectionName::Planar,
+        }
+    }
+
+    /// Forward projection of (lon, lat) in degrees (or planar x, y).
+    pub fn forward(&self, lon: f64, lat: f64) -> Option<Coord> {
+        match self {
+            Projection::Equirectangular(p) => p.forward(lon, lat),
+            Projection::WebMercator(p) => p.forward(lon, lat),
+            Projection::Albers(p) => p.forward(lon, lat),
+            Projection::LambertAzimuthal(p) => p.forward(lon, lat),
+            Projection::EqualEarth(p) => p.forward(lon, lat),
+            Projection::Planar(p) => p.forward(lon, lat),
+        }
+    }
+
+    /// Every parameter, by name, for reports. Angles in degrees, lengths in
+    /// metres; `a` and `e2` describe the ellipsoid (e2 = 0: a sphere).
+    pub fn params(&self) -> BTreeMap<&'static str, f64> {
+        let mut m = BTreeMap::new();
+        let ell = |m: &mut BTreeMap<&'static str, f64>, e: &Ellipsoid| {
+            m.insert("a", e.a);
+            m.insert("e2", e.e2);
+        };
+        match self {
+            Projection::Equirectangular(p) => {
+                m.insert("lon_0", p.lon0);
+                m.insert("lat_ts", p.lat_ts);
+                ell(&mut m, &p.ellipsoid);
+            }
+            Projection::WebMercator(p) => {
+                m.insert("lon_0", p.lon0);
+                m.insert("a", WebMercator::R);
+                m.insert("max_lat", WEB_MERCATOR_MAX_LAT);
+            }
+            Projection::Albers(p) => {
+                m.insert("lat_1", p.lat1);
+                m.insert("lat_2", p.lat2);
+                m.insert("lat_0", p.lat0);
+                m.insert("lon_0", p.lon0);
+                ell(&mut m, &p.ellipsoid);
+            }
+            Projection::LambertAzimuthal(p) => {
+                m.insert("lat_0", p.lat0);
+                m.insert("lon_0", p.lon0);
+                m.insert("x_0", p.x0);
+                m.insert("y_0", p.y0);
+                ell(&mut m, &p.ellipsoid);
+            }
+            Projection::EqualEarth(p) => {
+                m.insert("lon_0", p.lon0);
+                ell(&mut m, &p.ellipsoid);
+            }
+            Projection::Planar(_) => {}
+        }
+        m
+    }
+
+    /// Project a geometry. Lines and ring edges longer than
+    /// `densify_degrees` (when positive) are first split into equal steps in
+    /// longitude/latitude, which RFC 7946 treats as straight; without it a
+    /// projected edge is the chord between projected vertices. `None` when
+    /// any vertex has no image.
+    pub fn project_geometry(&self, g: &Geometry, densify_degrees: f64) -> Option<Geometry> {
+        let f = |c: Coord| self.forward(c[0], c[1]);
+        let polygons = g
+            .polygons
+            .iter()
+            .map(|p| {
+                let p = if densify_degrees > 0.0 {
+                    crate::geo::densify::densify_polygon(p, densify_degrees)
+                } else {
+                    p.clone()
+                };
+                p.try_map(f)
+            })
+            .collect::<Option<Vec<_>>>()?;
+        let lines = g
+            .lines
+            .iter()
+            .map(|l| {
+                let l = if densify_degrees > 0.0 {
+                    crate::geo::densify::densify_path(l, densify_degrees, false)
+                } else {
+                    l.clone()
+                };
+                l.into_iter().map(f).collect::<Option<Vec<_>>>()
+            })
+            .collect::<Option<Vec<_>>>()?;
+        let points = g.points.iter().map(|&c| f(c)).collect::<Option<Vec<_>>>()?;
+        Some(Geometry {
+            polygons,
+            lines,
+            points,
+        })
+    }
+}
