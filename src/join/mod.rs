@@ -167,7 +167,7 @@ pub fn join(layer: &Layer, table: &Table, normalize: bool) -> JoinReport {
     let mut rows_with_missing_values = Vec::new();
     let mut invalid_values = Vec::new();
     for r in &table.rows {
-        if r.values.iter().any(|c| *c == Cell::Missing) {
+        if r.values.contains(&Cell::Missing) {
             rows_with_missing_values.push(r.key.clone());
         }
         for (c, col) in r.values.iter().zip(&table.value_columns) {

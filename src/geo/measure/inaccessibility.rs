@@ -30,7 +30,7 @@ pub fn label_point(g: &Geometry) -> Option<Coord> {
         .max_by(|a, b| polygon_area(a).total_cmp(&polygon_area(b)));
     if let Some(p) = largest {
         let (w, h) = bbox_size(p);
-        let precision = (w.max(h) * 1e-4).max(f64::MIN_POSITIVE);
+        let precision = (w.max(h) * 1e-3).max(f64::MIN_POSITIVE);
         return Some(pole_of_inaccessibility(p, precision).0);
     }
     if let Some(l) = g.lines.first() {
@@ -117,8 +117,10 @@ pub fn pole_of_inaccessibility(p: &Polygon, precision: f64) -> (Coord, f64) {
             best = cc;
         }
     }
-    // Bounded work: the precision and a split budget both stop the search.
-    let mut budget = 2_000usize;
+    // Bounded work: the precision and a split budget (smaller for rings
+    // with many vertices, each split costs four distance scans) both stop
+    // the search; the best centre so far is still inside.
+    let mut budget = (8_000_000 / p.vertex_count().max(1)).clamp(16, 2_000);
     while let Some(cell) = queue.pop() {
         if cell.d > best.d {
             best = Cell {
