@@ -4,15 +4,18 @@
 //!
 //! Flow: file -> [`geojson_read`] (with [`validate`]) -> [`model::Layer`]
 //! -> [`projection`] -> [`measure`]. [`shapes`] puts these together for
-//! `hueproof shapes`.
+//! `hueproof shapes`; [`fit`] and [`simplify`] prepare shapes for output.
 
 pub mod densify;
 pub mod extent;
+pub mod fit;
+pub mod generate;
 pub mod geojson_read;
 pub mod measure;
 pub mod model;
 pub mod projection;
 pub mod shapes;
+pub mod simplify;
 pub(crate) mod validate;
 
 pub use geojson_read::{KeySource, ReadOptions, read_geojson_file, read_geojson_str};
