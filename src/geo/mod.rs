@@ -6,6 +6,7 @@
 //! -> [`projection`] -> [`measure`]. [`shapes`] puts these together for
 //! `hueproof shapes`; [`fit`] and [`simplify`] prepare shapes for output.
 
+pub mod antimeridian;
 pub mod densify;
 pub mod extent;
 pub mod fit;

@@ -197,37 +197,60 @@ impl Projection {
         m
     }
 
-    /// Project a geometry. Lines and ring edges longer than
-    /// `densify_degrees` (when positive) are first split into equal steps in
-    /// longitude/latitude, which RFC 7946 treats as straight; without it a
-    /// projected edge is the chord between projected vertices. `None` when
-    /// any vertex has no image.
+    /// The central meridian whose opposite (λ0 + 180°) is a cut on the
+    /// map, for projections where that meridian is the frame edge
+    /// (cylindrical, pseudo-cylindrical, conic). `None` for the azimuthal
+    /// and planar ones, which need no cut.
+    pub fn cut_meridian_centre(&self) -> Option<f64> {
+        match self {
+            Projection::Equirectangular(p) => Some(p.lon0),
+            Projection::WebMercator(p) => Some(p.lon0),
+            Projection::Albers(p) => Some(p.lon0),
+            Projection::EqualEarth(p) => Some(p.lon0),
+            Projection::LambertAzimuthal(_) | Projection::Planar(_) => None,
+        }
+    }
+
+    /// Project a geometry. Rings and lines that cross the meridian opposite
+    /// the centre are first cut there ([`crate::geo::antimeridian`]); then
+    /// edges longer than `densify_degrees` (when positive) are split into
+    /// equal steps in longitude/latitude, which RFC 7946 treats as
+    /// straight; without it a projected edge is the chord between projected
+    /// vertices. `None` when any vertex has no image.
     pub fn project_geometry(&self, g: &Geometry, densify_degrees: f64) -> Option<Geometry> {
+        use crate::geo::{antimeridian, densify};
         let f = |c: Coord| self.forward(c[0], c[1]);
-        let polygons = g
-            .polygons
-            .iter()
-            .map(|p| {
-                let p = if densify_degrees > 0.0 {
-                    crate::geo::densify::densify_polygon(p, densify_degrees)
+        let cut = self.cut_meridian_centre();
+        let mut polygons = Vec::with_capacity(g.polygons.len());
+        for p in &g.polygons {
+            let pieces = match cut {
+                Some(lon0) => antimeridian::cut_polygon(p, lon0),
+                None => vec![p.clone()],
+            };
+            for piece in pieces {
+                let piece = if densify_degrees > 0.0 {
+                    densify::densify_polygon(&piece, densify_degrees)
                 } else {
-                    p.clone()
+                    piece
                 };
-                p.try_map(f)
-            })
-            .collect::<Option<Vec<_>>>()?;
-        let lines = g
-            .lines
-            .iter()
-            .map(|l| {
-                let l = if densify_degrees > 0.0 {
-                    crate::geo::densify::densify_path(l, densify_degrees, false)
+                polygons.push(piece.try_map(f)?);
+            }
+        }
+        let mut lines = Vec::with_capacity(g.lines.len());
+        for l in &g.lines {
+            let pieces = match cut {
+                Some(lon0) => antimeridian::cut_line(l, lon0),
+                None => vec![l.clone()],
+            };
+            for piece in pieces {
+                let piece = if densify_degrees > 0.0 {
+                    densify::densify_path(&piece, densify_degrees, false)
                 } else {
-                    l.clone()
+                    piece
                 };
-                l.into_iter().map(f).collect::<Option<Vec<_>>>()
-            })
-            .collect::<Option<Vec<_>>>()?;
+                lines.push(piece.into_iter().map(f).collect::<Option<Vec<_>>>()?);
+            }
+        }
         let points = g.points.iter().map(|&c| f(c)).collect::<Option<Vec<_>>>()?;
         Some(Geometry {
             polygons,
