@@ -190,3 +190,37 @@ fn shapes_reports_problems_and_exits_1() {
     let (code, _, _) = run(&["shapes", p(&fixture("join/dirty.csv"))]);
     assert_eq!(code, 2);
 }
+
+/// `--frame`: fit and simplify; a full 20 x 20 grid has 760 interior
+/// borders plus 76 frame runs between the 4 x 19 frame junctions = 836
+/// arcs, each border simplified once.
+#[test]
+fn shapes_frame_simplifies_and_counts_arcs() {
+    let grid = hueproof::geo::generate::Grid::new(400, 5, 11);
+    let path = PathBuf::from(env!("CARGO_TARGET_TMPDIR")).join("grid400.geojson");
+    std::fs::write(&path, grid.geojson()).unwrap();
+    let (code, out, err) = run(&[
+        "shapes",
+        p(&path),
+        "--key",
+        "code",
+        "--frame",
+        "800x600",
+        "--simplify",
+        "1",
+        "--method",
+        "douglas-peucker",
+        "--json",
+    ]);
+    assert_eq!(code, 0, "{err}");
+    let v: serde_json::Value = serde_json::from_str(&out).unwrap();
+    let s = &v["simplification"];
+    assert_eq!(s["arcs"], 836);
+    assert_eq!(s["method"], "douglas-peucker");
+    assert_eq!(s["vertices_in"], 400 * 4 * 6);
+    assert!(s["vertices_out"].as_u64().unwrap() < 400 * 4 * 6);
+    assert_eq!(s["tiny_shapes"].as_array().unwrap().len(), 0);
+    // A bad frame is a usage error.
+    let (code, _, _) = run(&["shapes", p(&path), "--frame", "800"]);
+    assert_eq!(code, 2);
+}

@@ -7,7 +7,8 @@ use clap::{Args, ValueEnum};
 
 use crate::error::{Error, ExitKind};
 use crate::geo::projection::{Ellipsoid, ProjectionName};
-use crate::geo::shapes::{ShapesRequest, render_text, summarise};
+use crate::geo::shapes::{OutputRequest, ShapesRequest, render_text, summarise};
+use crate::geo::simplify::Method;
 use crate::geo::{CoordinateKind, KeySource, ReadOptions, read_geojson_file};
 
 use super::Outcome;
@@ -35,9 +36,48 @@ pub struct ShapesArgs {
     /// Split edges longer than DEG degrees before projecting (0: off).
     #[arg(long, value_name = "DEG", default_value_t = 0.0)]
     pub densify: f64,
+    /// Fit to an output frame of WxH pixels (e.g. 800x600) and simplify
+    /// there; the report then gives vertices in and out.
+    #[arg(long, value_name = "WxH")]
+    pub frame: Option<String>,
+    /// Padding inside the frame, pixels.
+    #[arg(long, value_name = "PX", default_value_t = 10.0)]
+    pub padding: f64,
+    /// Simplification tolerance, output pixels.
+    #[arg(long, value_name = "PX", default_value_t = 0.25)]
+    pub simplify: f64,
+    /// Simplification method.
+    #[arg(long, value_enum, default_value = "visvalingam-whyatt")]
+    pub method: MethodArg,
+    /// Report shapes smaller than this many square pixels (they are kept).
+    #[arg(long, value_name = "PX2", default_value_t = 1.0)]
+    pub tiny: f64,
     /// Print one JSON object instead of text.
     #[arg(long)]
     pub json: bool,
+}
+
+/// Simplification methods on the command line.
+#[derive(Debug, Clone, Copy, ValueEnum)]
+pub enum MethodArg {
+    /// Visvalingam & Whyatt 1993 (effective area, tolerance² px²).
+    VisvalingamWhyatt,
+    /// Douglas & Peucker 1973 (distance, tolerance px).
+    DouglasPeucker,
+}
+
+fn parse_frame(s: &str) -> Result<(f64, f64), Error> {
+    let bad = || Error::Usage {
+        what: "--frame".into(),
+        message: format!("expected WIDTHxHEIGHT in pixels, e.g. 800x600, got '{s}'"),
+    };
+    let (w, h) = s.split_once(['x', 'X']).ok_or_else(bad)?;
+    let w: f64 = w.trim().parse().map_err(|_| bad())?;
+    let h: f64 = h.trim().parse().map_err(|_| bad())?;
+    if !(w > 0.0 && h > 0.0 && w.is_finite() && h.is_finite()) {
+        return Err(bad());
+    }
+    Ok((w, h))
 }
 
 /// Projection names on the command line.
@@ -108,13 +148,43 @@ pub fn run(args: ShapesArgs) -> Result<Outcome, Error> {
         EllipsoidArg::Wgs84 => Ellipsoid::wgs84(),
         EllipsoidArg::Sphere => Ellipsoid::authalic_sphere(),
     };
+    for (what, v) in [
+        ("--padding", args.padding),
+        ("--simplify", args.simplify),
+        ("--tiny", args.tiny),
+    ] {
+        if !(v >= 0.0 && v.is_finite()) {
+            return Err(Error::Usage {
+                what: what.into(),
+                message: format!("expected a non-negative number, got {v}"),
+            });
+        }
+    }
+    let output = match &args.frame {
+        None => None,
+        Some(f) => {
+            let (width, height) = parse_frame(f)?;
+            Some(OutputRequest {
+                width,
+                height,
+                padding: args.padding,
+                method: match args.method {
+                    MethodArg::VisvalingamWhyatt => Method::VisvalingamWhyatt,
+                    MethodArg::DouglasPeucker => Method::DouglasPeucker,
+                },
+                tolerance: args.simplify,
+                tiny_area: args.tiny,
+            })
+        }
+    };
     let req = ShapesRequest {
         projection,
         ellipsoid,
         densify_degrees: args.densify,
+        output,
     };
     let rep = summarise(&layer, &req).map_err(|message| Error::Usage {
-        what: "--projection".into(),
+        what: "shapes".into(),
         message,
     })?;
     let stdout = if args.json {

@@ -7,9 +7,11 @@ use std::fmt::Write as _;
 use serde::Serialize;
 
 use super::extent::Extent;
+use super::fit::Fit;
 use super::measure::{geometry_area, label_point};
-use super::model::{Coord, Layer};
+use super::model::{Coord, Geometry, Layer};
 use super::projection::{Ellipsoid, ProjectionName, Purpose, choose_projection};
+use super::simplify::{Method, simplify};
 
 /// What to summarise.
 #[derive(Debug, Clone)]
@@ -20,6 +22,50 @@ pub struct ShapesRequest {
     pub ellipsoid: Ellipsoid,
     /// Split edges longer than this many degrees before projecting (0: off).
     pub densify_degrees: f64,
+    /// Fit to an output frame and simplify there, if set.
+    pub output: Option<OutputRequest>,
+}
+
+/// Fitting to a frame and simplifying for output.
+#[derive(Debug, Clone, Copy)]
+pub struct OutputRequest {
+    /// Frame width, pixels.
+    pub width: f64,
+    /// Frame height, pixels.
+    pub height: f64,
+    /// Padding on every side, pixels.
+    pub padding: f64,
+    /// Simplification method.
+    pub method: Method,
+    /// Tolerance, pixels.
+    pub tolerance: f64,
+    /// Shapes under this area (square pixels) are reported as tiny.
+    pub tiny_area: f64,
+}
+
+/// What fitting and simplification did.
+#[derive(Debug, Clone, Serialize)]
+pub struct SimplificationReport {
+    /// Frame `[width, height]`, pixels.
+    pub frame: [f64; 2],
+    /// Padding, pixels.
+    pub padding: f64,
+    /// Pixels per projected unit.
+    pub scale: f64,
+    /// The method.
+    pub method: Method,
+    /// Tolerance, pixels.
+    pub tolerance_px: f64,
+    /// Vertices before simplification (after cutting and densifying).
+    pub vertices_in: usize,
+    /// Vertices after.
+    pub vertices_out: usize,
+    /// Distinct arcs (shared borders counted once).
+    pub arcs: usize,
+    /// Tiny-shape threshold, square pixels.
+    pub tiny_area_px2: f64,
+    /// Keys of shapes under the threshold: kept, not dropped.
+    pub tiny_shapes: Vec<String>,
 }
 
 /// The projection part of the report.
@@ -66,6 +112,13 @@ pub struct ShapesReport {
     pub features: Vec<FeatureSummary>,
     /// Every problem, in input order.
     pub problems: Vec<ProblemEntry>,
+    /// Fitting and simplification, when a frame was given.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub simplification: Option<SimplificationReport>,
+    /// The output geometries (frame pixels, y down), when a frame was
+    /// given; in the order of `features`.
+    #[serde(skip)]
+    pub output: Vec<Geometry>,
     /// Why this projection (text output only).
     #[serde(skip)]
     pub reason: String,
@@ -99,6 +152,7 @@ pub fn summarise(layer: &Layer, req: &ShapesRequest) -> Result<ShapesReport, Str
         .collect();
     let mut unrepaired = layer.unrepaired().count();
     let mut features = Vec::new();
+    let mut projected = Vec::new();
     for (f, g) in layer.usable() {
         let Some(pg) = proj.project_geometry(g, req.densify_degrees) else {
             problems.push(ProblemEntry {
@@ -119,8 +173,51 @@ pub fn summarise(layer: &Layer, req: &ShapesRequest) -> Result<ShapesReport, Str
             parts: g.part_count(),
             vertices: g.vertex_count(),
         });
+        if req.output.is_some() {
+            projected.push(pg);
+        }
     }
     problems.sort_by_key(|p| p.feature);
+    let mut warnings = choice.warnings;
+    let (simplification, output) = match req.output {
+        None => (None, Vec::new()),
+        Some(o) => {
+            let fit = Fit::for_geometries(projected.iter(), o.width, o.height, o.padding)
+                .ok_or_else(|| {
+                    format!(
+                        "cannot fit the shapes into {} x {} px with {} px padding",
+                        o.width, o.height, o.padding
+                    )
+                })?;
+            let fitted: Vec<Geometry> = projected.iter().map(|g| fit.apply_geometry(g)).collect();
+            let (out, rep) = simplify(&fitted, o.method, o.tolerance, o.tiny_area);
+            let tiny_shapes: Vec<String> =
+                rep.tiny.iter().map(|&i| features[i].key.clone()).collect();
+            if !tiny_shapes.is_empty() {
+                warnings.push(format!(
+                    "{} shape(s) smaller than {} px² at this frame size are kept but will be hard to see: {}",
+                    tiny_shapes.len(),
+                    o.tiny_area,
+                    tiny_shapes.join(", ")
+                ));
+            }
+            (
+                Some(SimplificationReport {
+                    frame: [o.width, o.height],
+                    padding: o.padding,
+                    scale: fit.scale,
+                    method: o.method,
+                    tolerance_px: o.tolerance,
+                    vertices_in: rep.vertices_in,
+                    vertices_out: rep.vertices_out,
+                    arcs: rep.arcs,
+                    tiny_area_px2: o.tiny_area,
+                    tiny_shapes,
+                }),
+                out,
+            )
+        }
+    };
     Ok(ShapesReport {
         projection: ProjectionReport {
             name: proj.name().to_string(),
@@ -128,8 +225,10 @@ pub fn summarise(layer: &Layer, req: &ShapesRequest) -> Result<ShapesReport, Str
         },
         features,
         problems,
+        simplification,
+        output,
         reason: choice.reason,
-        warnings: choice.warnings,
+        warnings,
         unrepaired,
     })
 }
@@ -158,6 +257,30 @@ pub fn render_text(r: &ShapesReport) -> String {
             s,
             "  {}: area {:.6e}, label point {lp}, {} part(s), {} vertices",
             f.key, f.area, f.parts, f.vertices
+        );
+    }
+    if let Some(x) = &r.simplification {
+        let _ = writeln!(
+            s,
+            "output: {} x {} px, padding {} px, {} at {} px: {} vertices in, {} out, {} arcs",
+            x.frame[0],
+            x.frame[1],
+            x.padding,
+            x.method.as_str(),
+            x.tolerance_px,
+            x.vertices_in,
+            x.vertices_out,
+            x.arcs
+        );
+        let _ = writeln!(
+            s,
+            "  tiny shapes (< {} px², kept): {}",
+            x.tiny_area_px2,
+            if x.tiny_shapes.is_empty() {
+                "none".to_string()
+            } else {
+                x.tiny_shapes.join(", ")
+            }
         );
     }
     let _ = writeln!(s, "problems: {}", r.problems.len());

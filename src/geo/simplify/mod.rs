@@ -34,6 +34,16 @@ pub enum Method {
     VisvalingamWhyatt,
 }
 
+impl Method {
+    /// The command-line and JSON spelling.
+    pub fn as_str(self) -> &'static str {
+        match self {
+            Method::DouglasPeucker => "douglas-peucker",
+            Method::VisvalingamWhyatt => "visvalingam-whyatt",
+        }
+    }
+}
+
 /// What simplification did.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct SimplifyReport {
