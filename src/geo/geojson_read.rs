@@ -55,6 +55,11 @@ pub fn read_geojson_file(path: &Path, options: &ReadOptions) -> Result<Layer> {
 
 /// Read GeoJSON text into a layer. The error is a message for the user.
 pub fn read_geojson_str(text: &str, options: &ReadOptions) -> std::result::Result<Layer, String> {
+    // A FeatureCollection streams feature by feature (no copy of the whole
+    // document in memory); anything else goes through the full parse.
+    if let Some(layer) = super::geojson_stream::read_collection(text, options)? {
+        return Ok(layer);
+    }
     let gj: GeoJson = text
         .parse()
         .map_err(|e| format!("not valid GeoJSON (RFC 7946): {e}"))?;
@@ -71,10 +76,65 @@ pub fn read_geojson_str(text: &str, options: &ReadOptions) -> std::result::Resul
 
 /// Turn parsed GeoJSON features into a validated layer.
 pub fn convert_features(features: &[geojson::Feature], options: &ReadOptions) -> Layer {
-    let mut out = Vec::with_capacity(features.len());
-    let mut problems = Vec::new();
-    for (index, f) in features.iter().enumerate() {
-        let key = options.key.as_ref().map(|k| feature_key(f, k));
+    let mut b = LayerBuilder::new(options);
+    for f in features {
+        let prop = match &options.key {
+            Some(KeySource::Property(name)) => f.properties.as_ref().and_then(|p| p.get(name)),
+            _ => None,
+        };
+        let key = b.key(f.id.as_ref(), prop);
+        b.push(key, f.geometry.as_ref());
+    }
+    b.finish()
+}
+
+/// Builds a layer one feature at a time (shared by the whole-document and
+/// the streaming readers).
+pub(crate) struct LayerBuilder<'o> {
+    options: &'o ReadOptions,
+    features: Vec<Feature>,
+    problems: Vec<super::model::Problem>,
+}
+
+impl<'o> LayerBuilder<'o> {
+    pub(crate) fn new(options: &'o ReadOptions) -> Self {
+        LayerBuilder {
+            options,
+            features: Vec::new(),
+            problems: Vec::new(),
+        }
+    }
+
+    /// The key from a feature's id and the key property's value, by the
+    /// key source. `Some(None)` means "no key found".
+    pub(crate) fn key(
+        &self,
+        id: Option<&Id>,
+        prop: Option<&serde_json::Value>,
+    ) -> Option<Option<String>> {
+        let from_id = || {
+            id.map(|id| match id {
+                Id::String(s) => s.clone(),
+                Id::Number(n) => n.to_string(),
+            })
+        };
+        let source = self.options.key.as_ref()?;
+        Some(match source {
+            KeySource::FeatureId => from_id(),
+            KeySource::Property(name) => match prop {
+                Some(serde_json::Value::String(s)) => Some(s.clone()),
+                Some(serde_json::Value::Number(n)) => Some(n.to_string()),
+                Some(serde_json::Value::Bool(b)) => Some(b.to_string()),
+                Some(serde_json::Value::Null) | None if name == "id" => from_id(),
+                _ => None,
+            },
+        })
+    }
+
+    /// Validate and add one feature; `key` as returned by [`Self::key`].
+    pub(crate) fn push(&mut self, key: Option<Option<String>>, geometry: Option<&geojson::Geometry>) {
+        let options = self.options;
+        let index = self.features.len();
         let key = match key {
             None => Some(index.to_string()),
             Some(k) => k,
@@ -91,45 +151,35 @@ pub fn convert_features(features: &[geojson::Feature], options: &ReadOptions) ->
                 format!("feature has no {name} to join on"),
             );
         }
-        let mut geometry = Geometry::default();
-        match &f.geometry {
+        let mut out = Geometry::default();
+        match geometry {
             None => ck.empty("feature has no geometry (null)"),
-            Some(g) => add_geometry(&g.value, &mut geometry, &mut ck, ""),
+            Some(g) => add_geometry(&g.value, &mut out, &mut ck, ""),
         }
-        if geometry.is_empty() && !ck.excluded && f.geometry.is_some() {
+        if out.is_empty() && !ck.excluded && geometry.is_some() {
             ck.empty("geometry is empty");
         }
         let excluded = ck.excluded;
-        problems.append(&mut ck.problems);
-        out.push(Feature {
+        self.problems.append(&mut ck.problems);
+        self.features.push(Feature {
             index,
             key,
-            geometry: if excluded { None } else { Some(geometry) },
+            geometry: if excluded { None } else { Some(out) },
         });
     }
-    Layer::new(out, problems, options.coordinates)
-}
 
-/// The key of a feature, as text. Numbers keep their JSON spelling.
-fn feature_key(f: &geojson::Feature, source: &KeySource) -> Option<String> {
-    let from_id = || {
-        f.id.as_ref().map(|id| match id {
-            Id::String(s) => s.clone(),
-            Id::Number(n) => n.to_string(),
-        })
-    };
-    match source {
-        KeySource::FeatureId => from_id(),
-        KeySource::Property(name) => {
-            let v = f.properties.as_ref().and_then(|p| p.get(name));
-            match v {
-                Some(serde_json::Value::String(s)) => Some(s.clone()),
-                Some(serde_json::Value::Number(n)) => Some(n.to_string()),
-                Some(serde_json::Value::Bool(b)) => Some(b.to_string()),
-                Some(serde_json::Value::Null) | None if name == "id" => from_id(),
-                _ => None,
-            }
-        }
+    /// Number of features so far.
+    pub(crate) fn len(&self) -> usize {
+        self.features.len()
+    }
+
+    /// Where keys come from.
+    pub(crate) fn key_source(&self) -> Option<&KeySource> {
+        self.options.key.as_ref()
+    }
+
+    pub(crate) fn finish(self) -> Layer {
+        Layer::new(self.features, self.problems, self.options.coordinates)
     }
 }
 

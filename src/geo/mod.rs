@@ -12,6 +12,7 @@ pub mod extent;
 pub mod fit;
 pub mod generate;
 pub mod geojson_read;
+mod geojson_stream;
 pub mod measure;
 pub mod model;
 pub mod projection;
