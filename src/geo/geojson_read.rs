@@ -132,7 +132,11 @@ impl<'o> LayerBuilder<'o> {
     }
 
     /// Validate and add one feature; `key` as returned by [`Self::key`].
-    pub(crate) fn push(&mut self, key: Option<Option<String>>, geometry: Option<&geojson::Geometry>) {
+    pub(crate) fn push(
+        &mut self,
+        key: Option<Option<String>>,
+        geometry: Option<&geojson::Geometry>,
+    ) {
         let options = self.options;
         let index = self.features.len();
         let key = match key {

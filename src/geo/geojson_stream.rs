@@ -13,10 +13,7 @@ use super::model::Layer;
 
 /// Read `text` if it is a FeatureCollection; `Ok(None)` if it is valid
 /// JSON of another kind (a Feature or a Geometry).
-pub(crate) fn read_collection(
-    text: &str,
-    options: &ReadOptions,
-) -> Result<Option<Layer>, String> {
+pub(crate) fn read_collection(text: &str, options: &ReadOptions) -> Result<Option<Layer>, String> {
     let mut builder = LayerBuilder::new(options);
     let mut de = serde_json::Deserializer::from_str(text);
     let is_collection = de
@@ -136,7 +133,8 @@ impl<'de> Visitor<'de> for OneFeature<'_, '_> {
             return Err(de::Error::custom(format!(
                 "feature {}: expected \"type\": \"Feature\", found {}",
                 self.builder.len(),
-                ty.map(|t| format!("\"{t}\"")).unwrap_or_else(|| "no type".into())
+                ty.map(|t| format!("\"{t}\""))
+                    .unwrap_or_else(|| "no type".into())
             )));
         }
         let key = self.builder.key(id.as_ref(), prop.as_ref());
