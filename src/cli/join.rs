@@ -5,7 +5,7 @@ use std::path::PathBuf;
 use clap::Args;
 
 use crate::error::{Error, ExitKind};
-use crate::geo::{KeySource, ReadOptions, read_geojson_file};
+use crate::geo::{KeySource, ReadOptions, read_shapes_file};
 use crate::join::{join, report};
 use crate::table::{TableOptions, read_table_file};
 
@@ -38,6 +38,9 @@ pub struct JoinArgs {
     /// null, -).
     #[arg(long, value_name = "LIST")]
     pub missing: Option<String>,
+    /// TopoJSON object to read (default: the first object).
+    #[arg(long, value_name = "NAME")]
+    pub object: Option<String>,
     /// Print one JSON object instead of text.
     #[arg(long)]
     pub json: bool,
@@ -45,7 +48,7 @@ pub struct JoinArgs {
 
 /// Run `join`.
 pub fn run(args: JoinArgs) -> Result<Outcome, Error> {
-    let layer = read_geojson_file(
+    let layer = read_shapes_file(
         &args.shapes,
         &ReadOptions {
             key: Some(KeySource::Property(args.shape_key.clone())),
@@ -53,6 +56,7 @@ pub fn run(args: JoinArgs) -> Result<Outcome, Error> {
             repair: true,
             ..ReadOptions::default()
         },
+        args.object.as_deref(),
     )?;
     let mut topts = TableOptions::new(&args.data_key);
     if let Some(v) = &args.values {

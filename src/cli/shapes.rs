@@ -9,7 +9,7 @@ use crate::error::{Error, ExitKind};
 use crate::geo::projection::{Ellipsoid, ProjectionName};
 use crate::geo::shapes::{OutputRequest, ShapesRequest, render_text, summarise};
 use crate::geo::simplify::Method;
-use crate::geo::{CoordinateKind, KeySource, ReadOptions, read_geojson_file};
+use crate::geo::{CoordinateKind, KeySource, ReadOptions, read_shapes_file};
 
 use super::Outcome;
 
@@ -52,6 +52,9 @@ pub struct ShapesArgs {
     /// Report shapes smaller than this many square pixels (they are kept).
     #[arg(long, value_name = "PX2", default_value_t = 1.0)]
     pub tiny: f64,
+    /// TopoJSON object to read (default: the first object).
+    #[arg(long, value_name = "NAME")]
+    pub object: Option<String>,
     /// Print one JSON object instead of text.
     #[arg(long)]
     pub json: bool,
@@ -136,13 +139,14 @@ pub fn run(args: ShapesArgs) -> Result<Outcome, Error> {
     } else {
         CoordinateKind::Geographic
     };
-    let layer = read_geojson_file(
+    let layer = read_shapes_file(
         &args.shapes,
         &ReadOptions {
             key: args.key.clone().map(KeySource::Property),
             repair: args.repair,
             coordinates,
         },
+        args.object.as_deref(),
     )?;
     let ellipsoid = match args.ellipsoid {
         EllipsoidArg::Wgs84 => Ellipsoid::wgs84(),
