@@ -57,7 +57,7 @@ impl Grid {
         ((z >> 11) as f64 / (1u64 << 53) as f64 - 0.5) * 0.2
     }
 
-    fn to_lonlat(&self, x: f64, y: f64) -> Coord {
+    fn lonlat(&self, x: f64, y: f64) -> Coord {
         let s = self.cell_size();
         [-120.0 + x * s, 25.0 + y * s]
     }
@@ -74,7 +74,7 @@ impl Grid {
                 } else {
                     self.offset(1, i, j, k) * 4.0 * t * (1.0 - t)
                 };
-                self.to_lonlat(i as f64 + off, j as f64 + t)
+                self.lonlat(i as f64 + off, j as f64 + t)
             })
             .collect()
     }
@@ -91,7 +91,7 @@ impl Grid {
                 } else {
                     self.offset(2, i, j, k) * 4.0 * t * (1.0 - t)
                 };
-                self.to_lonlat(i as f64 + t, j as f64 + off)
+                self.lonlat(i as f64 + t, j as f64 + off)
             })
             .collect()
     }
