@@ -27,36 +27,33 @@ fn p(path: &Path) -> &str {
     path.to_str().unwrap()
 }
 
-#[test]
-fn join_exit_codes_and_json() {
-    let shapes = fixture("geo/districts.geojson");
-    let dirty = fixture("join/dirty.csv");
-    let (code, out, _) = run(&[
+/// `hueproof join SHAPES DATA --shape-key code --data-key code EXTRA...`.
+fn join(shapes: &Path, data: &str, extra: &[&str]) -> (i32, String, String) {
+    let mut args = vec![
         "join",
-        p(&shapes),
-        p(&dirty),
+        p(shapes),
+        data,
         "--shape-key",
         "code",
         "--data-key",
         "code",
-        "--normalize-keys",
-        "--json",
-    ]);
+    ];
+    args.extend_from_slice(extra);
+    run(&args)
+}
+
+#[test]
+fn join_exit_codes_and_json() {
+    let shapes = fixture("geo/districts.geojson");
+    let dirty = fixture("join/dirty.csv");
+    let (code, out, _) = join(&shapes, p(&dirty), &["--normalize-keys", "--json"]);
     assert_eq!(code, 1);
     let v: serde_json::Value = serde_json::from_str(&out).unwrap();
     assert_eq!(v["matched"], 4);
     assert_eq!(v["rows_without_shape"], serde_json::json!(["01099"]));
     assert_eq!(v["duplicate_keys"], serde_json::json!(["01004"]));
     // Text: duplicates name both rows.
-    let (_, text, _) = run(&[
-        "join",
-        p(&shapes),
-        p(&dirty),
-        "--shape-key",
-        "code",
-        "--data-key",
-        "code",
-    ]);
+    let (_, text, _) = join(&shapes, p(&dirty), &[]);
     assert!(
         text.contains("'01004': data rows on lines 5 and 7"),
         "{text}"
@@ -69,26 +66,10 @@ fn join_exit_codes_and_json() {
         .map(|k| format!("{:05},{k}.5\n", 1000 + k))
         .collect();
     std::fs::write(&clean, format!("code,rate\n{rows}")).unwrap();
-    let (code, _, _) = run(&[
-        "join",
-        p(&shapes),
-        p(&clean),
-        "--shape-key",
-        "code",
-        "--data-key",
-        "code",
-    ]);
+    let (code, _, _) = join(&shapes, p(&clean), &[]);
     assert_eq!(code, 0);
     // Unreadable input: exit 2 with the file named.
-    let (code, _, err) = run(&[
-        "join",
-        p(&shapes),
-        "no-such-file.csv",
-        "--shape-key",
-        "code",
-        "--data-key",
-        "code",
-    ]);
+    let (code, _, err) = join(&shapes, "no-such-file.csv", &[]);
     assert_eq!(code, 2);
     assert!(err.contains("no-such-file.csv"));
 }

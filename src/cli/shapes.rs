@@ -23,9 +23,11 @@ pub struct ShapesArgs {
     /// id); default: the feature's index.
     #[arg(long, value_name = "K")]
     pub key: Option<String>,
-    /// Projection (default: an equal-area one chosen from the extent).
-    #[arg(long, value_enum, value_name = "NAME")]
-    pub projection: Option<ProjectionArg>,
+    /// Projection: equirectangular, web-mercator, albers,
+    /// lambert-azimuthal, equal-earth, or planar for data already projected
+    /// (default: an equal-area one chosen from the extent).
+    #[arg(long, value_name = "NAME", value_parser = |s: &str| s.parse::<ProjectionName>())]
+    pub projection: Option<ProjectionName>,
     /// Figure of the Earth.
     #[arg(long, value_enum, default_value = "wgs84")]
     pub ellipsoid: EllipsoidArg,
@@ -83,36 +85,6 @@ fn parse_frame(s: &str) -> Result<(f64, f64), Error> {
     Ok((w, h))
 }
 
-/// Projection names on the command line.
-#[derive(Debug, Clone, Copy, ValueEnum)]
-pub enum ProjectionArg {
-    /// Equirectangular (not equal-area).
-    Equirectangular,
-    /// Web Mercator, EPSG:3857 (not equal-area).
-    WebMercator,
-    /// Albers equal-area conic.
-    Albers,
-    /// Lambert azimuthal equal-area.
-    LambertAzimuthal,
-    /// Equal Earth.
-    EqualEarth,
-    /// Data already projected: coordinates used as they are.
-    Planar,
-}
-
-impl From<ProjectionArg> for ProjectionName {
-    fn from(p: ProjectionArg) -> Self {
-        match p {
-            ProjectionArg::Equirectangular => ProjectionName::Equirectangular,
-            ProjectionArg::WebMercator => ProjectionName::WebMercator,
-            ProjectionArg::Albers => ProjectionName::Albers,
-            ProjectionArg::LambertAzimuthal => ProjectionName::LambertAzimuthal,
-            ProjectionArg::EqualEarth => ProjectionName::EqualEarth,
-            ProjectionArg::Planar => ProjectionName::Planar,
-        }
-    }
-}
-
 /// Ellipsoid names on the command line.
 #[derive(Debug, Clone, Copy, ValueEnum)]
 pub enum EllipsoidArg {
@@ -124,7 +96,7 @@ pub enum EllipsoidArg {
 
 /// Run `shapes`.
 pub fn run(args: ShapesArgs) -> Result<Outcome, Error> {
-    let projection = args.projection.map(ProjectionName::from);
+    let projection = args.projection;
     if !(args.densify >= 0.0 && args.densify.is_finite()) {
         return Err(Error::Usage {
             what: "--densify".into(),

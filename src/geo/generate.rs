@@ -64,34 +64,37 @@ impl Grid {
 
     /// Vertical border at column line `i`, from row line `j` to `j + 1`.
     fn vertical(&self, i: usize, j: usize) -> Vec<Coord> {
-        let n = self.per_border;
         let frame = i == 0 || i == self.nx || self.cell(i, j).is_none();
-        (0..=n + 1)
-            .map(|k| {
-                let t = k as f64 / (n + 1) as f64;
-                let off = if frame {
-                    0.0
-                } else {
-                    self.offset(1, i, j, k) * 4.0 * t * (1.0 - t)
-                };
-                self.lonlat(i as f64 + off, j as f64 + t)
-            })
-            .collect()
+        self.border(1, i, j, frame, |t, off| [i as f64 + off, j as f64 + t])
     }
 
     /// Horizontal border at row line `j`, from column line `i` to `i + 1`.
     fn horizontal(&self, i: usize, j: usize) -> Vec<Coord> {
-        let n = self.per_border;
         let frame = j == 0 || j == self.ny || self.cell(i, j).is_none();
+        self.border(2, i, j, frame, |t, off| [i as f64 + t, j as f64 + off])
+    }
+
+    /// The vertices of one border: `at(t, offset)` places parameter `t` in
+    /// 0..=1 with its sideways offset (zero on the frame and at the ends).
+    fn border(
+        &self,
+        kind: u64,
+        i: usize,
+        j: usize,
+        frame: bool,
+        at: impl Fn(f64, f64) -> [f64; 2],
+    ) -> Vec<Coord> {
+        let n = self.per_border;
         (0..=n + 1)
             .map(|k| {
                 let t = k as f64 / (n + 1) as f64;
                 let off = if frame {
                     0.0
                 } else {
-                    self.offset(2, i, j, k) * 4.0 * t * (1.0 - t)
+                    self.offset(kind, i, j, k) * 4.0 * t * (1.0 - t)
                 };
-                self.lonlat(i as f64 + t, j as f64 + off)
+                let [x, y] = at(t, off);
+                self.lonlat(x, y)
             })
             .collect()
     }

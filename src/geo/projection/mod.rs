@@ -158,41 +158,44 @@ impl Projection {
     /// Every parameter, by name, for reports. Angles in degrees, lengths in
     /// metres; `a` and `e2` describe the ellipsoid (e2 = 0: a sphere).
     pub fn params(&self) -> BTreeMap<&'static str, f64> {
-        let mut m = BTreeMap::new();
-        let ell = |m: &mut BTreeMap<&'static str, f64>, e: &Ellipsoid| {
+        let (own, ellipsoid): (Vec<(&'static str, f64)>, Option<&Ellipsoid>) = match self {
+            Projection::Equirectangular(p) => (
+                vec![("lon_0", p.lon0), ("lat_ts", p.lat_ts)],
+                Some(&p.ellipsoid),
+            ),
+            Projection::WebMercator(p) => (
+                vec![
+                    ("lon_0", p.lon0),
+                    ("a", WebMercator::R),
+                    ("max_lat", WEB_MERCATOR_MAX_LAT),
+                ],
+                None,
+            ),
+            Projection::Albers(p) => (
+                vec![
+                    ("lat_1", p.lat1),
+                    ("lat_2", p.lat2),
+                    ("lat_0", p.lat0),
+                    ("lon_0", p.lon0),
+                ],
+                Some(&p.ellipsoid),
+            ),
+            Projection::LambertAzimuthal(p) => (
+                vec![
+                    ("lat_0", p.lat0),
+                    ("lon_0", p.lon0),
+                    ("x_0", p.x0),
+                    ("y_0", p.y0),
+                ],
+                Some(&p.ellipsoid),
+            ),
+            Projection::EqualEarth(p) => (vec![("lon_0", p.lon0)], Some(&p.ellipsoid)),
+            Projection::Planar(_) => (Vec::new(), None),
+        };
+        let mut m: BTreeMap<&'static str, f64> = own.into_iter().collect();
+        if let Some(e) = ellipsoid {
             m.insert("a", e.a);
             m.insert("e2", e.e2);
-        };
-        match self {
-            Projection::Equirectangular(p) => {
-                m.insert("lon_0", p.lon0);
-                m.insert("lat_ts", p.lat_ts);
-                ell(&mut m, &p.ellipsoid);
-            }
-            Projection::WebMercator(p) => {
-                m.insert("lon_0", p.lon0);
-                m.insert("a", WebMercator::R);
-                m.insert("max_lat", WEB_MERCATOR_MAX_LAT);
-            }
-            Projection::Albers(p) => {
-                m.insert("lat_1", p.lat1);
-                m.insert("lat_2", p.lat2);
-                m.insert("lat_0", p.lat0);
-                m.insert("lon_0", p.lon0);
-                ell(&mut m, &p.ellipsoid);
-            }
-            Projection::LambertAzimuthal(p) => {
-                m.insert("lat_0", p.lat0);
-                m.insert("lon_0", p.lon0);
-                m.insert("x_0", p.x0);
-                m.insert("y_0", p.y0);
-                ell(&mut m, &p.ellipsoid);
-            }
-            Projection::EqualEarth(p) => {
-                m.insert("lon_0", p.lon0);
-                ell(&mut m, &p.ellipsoid);
-            }
-            Projection::Planar(_) => {}
         }
         m
     }
