@@ -146,3 +146,72 @@ fn fit_keeps_aspect_pads_and_flips_y() {
     assert_eq!(fit.apply([0.0, 0.0]), [10.0, 310.0]);
     assert_eq!(fit.apply([200.0, 100.0]), [410.0, 110.0]);
 }
+
+/// Background pixels left inside the grid when the shapes are rendered
+/// (tiny-skia, no anti-aliasing, one opaque fill per shape), 2 px in from
+/// the outer frame (whose edges are straight).
+fn background_pixels(out: &[Geometry]) -> usize {
+    use tiny_skia::{FillRule, Paint, PathBuilder, Pixmap, Transform};
+    let mut pix = Pixmap::new(800, 600).unwrap();
+    let mut paint = Paint::default();
+    paint.anti_alias = false;
+    for (i, g) in out.iter().enumerate() {
+        paint.set_color_rgba8(40 + (i * 7 % 200) as u8, 90, 160, 255);
+        let mut pb = PathBuilder::new();
+        for p in &g.polygons {
+            for r in p.rings() {
+                pb.move_to(r[0][0] as f32, r[0][1] as f32);
+                for c in &r[1..] {
+                    pb.line_to(c[0] as f32, c[1] as f32);
+                }
+                pb.close();
+            }
+        }
+        let path = pb.finish().unwrap();
+        pix.fill_path(
+            &path,
+            &paint,
+            FillRule::Winding,
+            Transform::identity(),
+            None,
+        );
+    }
+    let (mut lo, mut hi) = ([f64::INFINITY; 2], [f64::NEG_INFINITY; 2]);
+    for g in out {
+        for c in g.coords() {
+            lo = [lo[0].min(c[0]), lo[1].min(c[1])];
+            hi = [hi[0].max(c[0]), hi[1].max(c[1])];
+        }
+    }
+    let mut background = 0;
+    for y in (lo[1] + 2.0) as u32..(hi[1] - 2.0) as u32 {
+        for x in (lo[0] + 2.0) as u32..(hi[0] - 2.0) as u32 {
+            if pix.pixel(x, y).unwrap().alpha() == 0 {
+                background += 1;
+            }
+        }
+    }
+    background
+}
+
+/// Rendering the simplified neighbours leaves no background pixel inside
+/// the grid; simplifying each shape alone does leave some (gaps).
+#[test]
+fn rendered_neighbours_leave_no_background_pixel() {
+    let geoms = fitted_grid();
+    let (out, _) = simplify(&geoms, Method::VisvalingamWhyatt, 10.0, 1.0);
+    assert_eq!(background_pixels(&out), 0);
+    let naive: Vec<Geometry> = geoms
+        .iter()
+        .map(|g| {
+            let (one, _) = simplify(
+                std::slice::from_ref(g),
+                Method::VisvalingamWhyatt,
+                10.0,
+                0.0,
+            );
+            one.into_iter().next().unwrap()
+        })
+        .collect();
+    assert!(background_pixels(&naive) > 0);
+}
