@@ -43,6 +43,9 @@ fn dirty_table_exact_keys() {
     assert_eq!(r.invalid_values[0].text, "1,234");
     assert_eq!(r.would_match_normalized, 2);
     assert!(!r.is_complete());
+    // A figure refuses to render with duplicates, naming both rows.
+    let err = r.require_unique_keys().unwrap_err();
+    assert!(err.contains("'01004' (row lines 5 and 7)"), "{err}");
 }
 
 #[test]

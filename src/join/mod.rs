@@ -90,6 +90,31 @@ impl JoinReport {
     }
 }
 
+impl JoinReport {
+    /// What a figure requires before it renders: no duplicate key on
+    /// either side. The error names every duplicate with both places.
+    pub fn require_unique_keys(&self) -> Result<(), String> {
+        if self.duplicates.is_empty() {
+            return Ok(());
+        }
+        let list: Vec<String> = self
+            .duplicates
+            .iter()
+            .map(|d| {
+                let unit = if d.side == "row" { "lines" } else { "features" };
+                format!(
+                    "'{}' ({} {unit} {} and {})",
+                    d.key, d.side, d.first, d.second
+                )
+            })
+            .collect();
+        Err(format!(
+            "duplicate keys make the join ambiguous, so the figure is not drawn: {}",
+            list.join(", ")
+        ))
+    }
+}
+
 /// Join a layer's features to a table's rows by key.
 pub fn join(layer: &Layer, table: &Table, normalize: bool) -> JoinReport {
     let norm = |k: &str| {

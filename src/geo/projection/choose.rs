@@ -3,12 +3,12 @@
 //! Documented defaults:
 //!
 //! - planar data: `planar`, the only choice;
+//! - an extent reaching within 10° of a pole and not beyond 30° into the
+//!   other hemisphere: Lambert azimuthal equal-area centred on that pole
+//!   (whatever its longitude span);
 //! - a whole-world extent (longitude span over 180° or latitude span over
 //!   90°): Equal Earth, central meridian 0 when the span exceeds 300°,
 //!   otherwise the extent's centre;
-//! - an extent reaching within 10° of a pole and not below 30° of
-//!   latitude on the other side: Lambert azimuthal equal-area centred on
-//!   that pole;
 //! - an extent that straddles the equator: Lambert azimuthal equal-area
 //!   centred on the extent (an Albers cone with parallels on both sides of
 //!   the equator degenerates);
@@ -90,8 +90,8 @@ pub fn choose_projection(
     };
     let name = match requested {
         Some(n) => n,
-        None if world => ProjectionName::EqualEarth,
         None if polar.is_some() => ProjectionName::LambertAzimuthal,
+        None if world => ProjectionName::EqualEarth,
         None if ext.lat_min < 0.0 && ext.lat_max > 0.0 => ProjectionName::LambertAzimuthal,
         None => ProjectionName::Albers,
     };
