@@ -17,8 +17,9 @@
 //!   differences, WCAG contrast and alpha compositing. Pure maths.
 //! - [`vision`]: simulated colour vision (Machado 2009, Brettel 1997,
 //!   Viénot 1999, achromatopsia) for single colours and RGBA8 rasters.
-//! - [`geo`]: GeoJSON input, the validated feature model, map projections
-//!   and planar measures (area, centroid, label point).
+//! - [`geo`]: GeoJSON and TopoJSON input, the validated feature model, map
+//!   projections, antimeridian cutting, planar measures (area, centroid,
+//!   label point), fitting to a frame and topology-safe simplification.
 //! - [`table`]: CSV data tables with typed, locale-free numbers.
 //! - [`join`]: shapes joined to table rows by key, and the join report.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
