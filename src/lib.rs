@@ -24,6 +24,11 @@
 //! - [`classify`]: class breaks for classed maps (equal interval, quantile,
 //!   exact natural breaks, standard deviation, head/tail, manual), their fit,
 //!   rounding, diverging arrangement and unclassed positions.
+//! - [`geo`]: GeoJSON and TopoJSON input, the validated feature model, map
+//!   projections, antimeridian cutting, planar measures (area, centroid,
+//!   label point), fitting to a frame and topology-safe simplification.
+//! - [`table`]: CSV data tables with typed, locale-free numbers.
+//! - [`join`]: shapes joined to table rows by key, and the join report.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
 //! - [`cli`]: the command line, a thin layer over the stages.
@@ -39,11 +44,14 @@ pub mod cli;
 pub mod color;
 pub mod error;
 pub mod findings;
+pub mod geo;
 pub mod inspect;
+pub mod join;
 pub mod output;
 pub mod raster;
 pub mod report;
 pub mod scheme;
+pub mod table;
 pub mod vision;
 
 pub use error::{Error, ExitKind};

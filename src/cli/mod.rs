@@ -14,7 +14,9 @@ use crate::error::{Error, ExitKind};
 
 mod breaks;
 mod inspect;
+mod join;
 mod palette;
+mod shapes;
 
 /// hueproof: colours that fit the data, proven on the rendered figure.
 #[derive(Debug, Parser)]
@@ -36,6 +38,11 @@ pub enum Command {
     /// Class breaks for a classed map from one column of a CSV file, with
     /// counts and goodness of variance fit.
     Breaks(breaks::BreaksArgs),
+    /// Join shapes to data rows by key and report every mismatch.
+    Join(join::JoinArgs),
+    /// Report the projection, area, label point, parts and vertices of each
+    /// shape, and every geometry problem.
+    Shapes(shapes::ShapesArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -66,6 +73,8 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::Inspect(args) => inspect::run(args),
         Command::Palette(args) => palette::run(args),
         Command::Breaks(args) => breaks::run(args),
+        Command::Join(args) => join::run(args),
+        Command::Shapes(args) => shapes::run(args),
     }
 }
 
