@@ -42,7 +42,7 @@ fn projected_over_geodesic_area_is_constant() {
         .records()
         .map(|r| {
             let r = r.unwrap();
-            (r[0].to_string(), r[2].parse().unwrap())
+            (r[0].to_string(), r[1].parse().unwrap())
         })
         .collect();
     assert_eq!(reference.len(), layer.features().len());
