@@ -16,6 +16,7 @@ mod breaks;
 mod inspect;
 mod join;
 mod palette;
+mod seeing;
 mod shapes;
 
 /// hueproof: colours that fit the data, proven on the rendered figure.

@@ -12,7 +12,7 @@ use crate::scheme::{self, Context, SchemeKind, Thresholds};
 use crate::vision::{self, CvdModel};
 
 use super::Outcome;
-use super::inspect::ModelArg;
+use super::seeing::SeeingArgs;
 
 /// Arguments of `palette`.
 #[derive(Debug, Args)]
@@ -73,15 +73,8 @@ pub struct Common {
     /// The kind of scheme.
     #[arg(long, value_enum)]
     pub scheme: SchemeArg,
-    /// Background the colours sit on.
-    #[arg(long, default_value = "white", value_name = "COLOR")]
-    pub background: String,
-    /// Views to judge (as in `inspect`).
-    #[arg(long, default_value = vision::DEFAULT_VIEWS, value_name = "LIST")]
-    pub views: String,
-    /// Simulation model for the deficiency views.
-    #[arg(long, value_enum, value_name = "MODEL")]
-    pub cvd_model: Option<ModelArg>,
+    #[command(flatten)]
+    pub seeing: SeeingArgs,
     /// Smallest CIEDE2000 difference between classes, and between a class
     /// and the background, in every view.
     #[arg(long, default_value_t = Thresholds::default().min_delta_e, value_name = "X")]
@@ -154,11 +147,11 @@ fn context(c: &Common) -> Result<Context, Error> {
     if !(c.min_delta_e.is_finite() && c.min_delta_e > 0.0) {
         return Err(usage("--min-delta-e", "expected a positive number".into()));
     }
-    let bg = parse_color(&c.background)?;
+    let bg = parse_color(&c.seeing.background)?;
     Ok(Context {
         background: scheme::to_8bit(composite::over(bg.rgba, Srgb::new(1.0, 1.0, 1.0))),
-        views: vision::parse_views(&c.views)?,
-        model: c.cvd_model.map(CvdModel::from),
+        views: vision::parse_views(&c.seeing.views)?,
+        model: c.seeing.cvd_model.map(CvdModel::from),
         thresholds: Thresholds {
             min_delta_e: c.min_delta_e,
             ..Thresholds::default()

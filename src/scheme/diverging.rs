@@ -14,8 +14,7 @@ use crate::color::{Srgb, ciede2000};
 use crate::vision::{Deficiency, Simulation, View};
 
 use super::ramp::{Path, place_by};
-use super::sequential::BACKGROUND_MARGIN;
-use super::{Context, separating_lightness, to_8bit};
+use super::{Context, near_background_lightness, to_8bit};
 
 /// Options of a diverging scheme.
 #[derive(Debug, Clone, PartialEq)]
@@ -48,19 +47,10 @@ fn arm(mid: f64, end: f64, hue: f64, chroma: f64) -> Path {
 
 /// Midpoint and end lightness for this background.
 fn lightness_range(ctx: &Context) -> (f64, f64) {
-    let light = ctx.light_background();
-    let bg_l = ctx.background.to_oklab().l;
-    let start = if light {
-        (bg_l - 0.02).min(0.98)
-    } else {
-        (bg_l + 0.02).max(0.05)
-    };
-    let step = if light { -0.005 } else { 0.005 };
-    let floor = ctx.thresholds.min_delta_e * BACKGROUND_MARGIN;
-    let mid = separating_lightness(ctx, start, step, floor, |l| {
+    let mid = near_background_lightness(ctx, |l| {
         crate::color::gamut::map_oklch_to_srgb(crate::color::Oklch::new(l, 0.0, 0.0)).0
     });
-    (mid, if light { 0.42 } else { 0.92 })
+    (mid, if ctx.light_background() { 0.42 } else { 0.92 })
 }
 
 /// Choose arm hues that stay apart for dichromats.

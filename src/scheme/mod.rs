@@ -192,18 +192,24 @@ pub fn to_8bit(c: Srgb) -> Srgb {
     Srgb::from_rgb8(r, g, b)
 }
 
-/// The OKLab lightness, starting at `from` and moving by `step`, at which
-/// a neutral-to-`colour(l)` colour first separates from the background by
-/// `floor` in every view (gives up at the end of 0..1).
-pub(crate) fn separating_lightness(
-    ctx: &Context,
-    from: f64,
-    step: f64,
-    floor: f64,
-    colour: impl Fn(f64) -> Srgb,
-) -> f64 {
+/// Margin over the floor for a class next to the background, so that
+/// 8-bit rounding cannot push it below.
+pub(crate) const BACKGROUND_MARGIN: f64 = 1.2;
+
+/// The OKLab lightness nearest the background's at which `colour(l)` first
+/// separates from the background by the floor (times
+/// [`BACKGROUND_MARGIN`]) in every view: searched from just below a light
+/// background's lightness downwards, or just above a dark one's upwards, in
+/// steps of 0.005 (gives up at the end of 0..1).
+pub(crate) fn near_background_lightness(ctx: &Context, colour: impl Fn(f64) -> Srgb) -> f64 {
+    let bg_l = ctx.background.to_oklab().l;
+    let (mut l, step) = if ctx.light_background() {
+        ((bg_l - 0.02).min(0.98), -0.005)
+    } else {
+        ((bg_l + 0.02).max(0.05), 0.005)
+    };
+    let floor = ctx.thresholds.min_delta_e * BACKGROUND_MARGIN;
     let sims = ctx.simulations();
-    let mut l = from;
     while (0.0..=1.0).contains(&(l + step)) && ctx.background_separation(colour(l), &sims) < floor {
         l += step;
     }

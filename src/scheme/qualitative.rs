@@ -91,7 +91,7 @@ fn candidates(
         .unwrap_or(if ctx.light_background() { 0.70 } else { 0.72 });
     let mut out: Vec<Candidate> = Vec::new();
     let mut seen = std::collections::BTreeSet::new();
-    let floor = ctx.thresholds.min_delta_e * super::sequential::BACKGROUND_MARGIN;
+    let floor = ctx.thresholds.min_delta_e * super::BACKGROUND_MARGIN;
     // OKLab L and CIELAB L* disagree across hues (a saturated blue of one
     // OKLab L has a lower L*), so the band is also enforced in L*: within
     // LSTAR_BAND of the L* of the neutral at the band centre.

@@ -13,7 +13,7 @@
 use crate::color::Srgb;
 
 use super::ramp::{Path, place};
-use super::{Context, separating_lightness, to_8bit};
+use super::{Context, near_background_lightness, to_8bit};
 
 /// Options of a sequential scheme.
 #[derive(Debug, Clone, PartialEq)]
@@ -39,26 +39,13 @@ impl Default for Options {
     }
 }
 
-/// Margin over the floor for the end nearest the background, so that 8-bit
-/// rounding cannot push it below.
-pub(crate) const BACKGROUND_MARGIN: f64 = 1.2;
-
 /// The OKLCH path of the scheme, with the far end at OKLab lightness
 /// `far`.
 fn path_to(opts: &Options, ctx: &Context, far: f64) -> Path {
     let h0 = opts.hues.first().copied().unwrap_or(250.0);
     let h1 = opts.hues.get(1).copied().unwrap_or(h0);
-    let light = ctx.light_background();
-    let bg_l = ctx.background.to_oklab().l;
     let near_chroma = 0.03;
-    let start = if light {
-        (bg_l - 0.02).min(0.98)
-    } else {
-        (bg_l + 0.02).max(0.05)
-    };
-    let step = if light { -0.005 } else { 0.005 };
-    let floor = ctx.thresholds.min_delta_e * BACKGROUND_MARGIN;
-    let near = separating_lightness(ctx, start, step, floor, |l| {
+    let near = near_background_lightness(ctx, |l| {
         Path {
             lightness: (l, far),
             chroma: (near_chroma, 0.05, opts.chroma),
