@@ -12,6 +12,7 @@
 //!   compared exactly (case matters).
 //! - A UTF-8 byte-order mark at the start of the file is ignored.
 
+use crate::table::number;
 use std::path::Path;
 
 use super::Sample;
@@ -125,63 +126,21 @@ pub fn parse(bytes: &[u8], path: &Path, spec: &ColumnSpec) -> Result<Sample, Err
     Sample::new(values, missing)
 }
 
-/// Parse one number in the documented syntax, or say what is wrong.
+/// Parse one number with the data-table grammar of
+/// [`crate::table::number`] (a point as the decimal mark, no grouping), or
+/// say what is wrong.
 pub fn parse_number(cell: &str) -> Result<f64, String> {
-    if is_plain_number(cell) {
-        return cell
-            .parse::<f64>()
-            .ok()
-            .filter(|v| v.is_finite())
-            .ok_or_else(|| format!("'{cell}' is out of the range of a 64-bit float"));
-    }
     if cell.is_empty() {
         return Err(
             "empty cell, and the empty cell is not a missing-value marker here; expected a number"
                 .into(),
         );
     }
-    if cell.contains(',') && is_plain_number(&cell.replace(',', ".")) {
-        return Err(format!(
-            "'{cell}' is not a number: the decimal point must be '.', not ','"
-        ));
-    }
-    Err(format!(
-        "'{cell}' is not a number (expected e.g. 12, -3.5 or 1.2e3) nor a missing-value marker"
-    ))
-}
-
-/// Sign, digits with at most one '.', at least one digit, optional exponent.
-fn is_plain_number(s: &str) -> bool {
-    let b = s.as_bytes();
-    let mut i = 0;
-    if i < b.len() && (b[i] == b'+' || b[i] == b'-') {
-        i += 1;
-    }
-    let mut digits = 0;
-    let mut dot = false;
-    while i < b.len() {
-        match b[i] {
-            b'0'..=b'9' => digits += 1,
-            b'.' if !dot => dot = true,
-            _ => break,
+    number::parse_number(cell).map_err(|e| {
+        if cell.contains(',') && number::parse_number(&cell.replace(',', ".")).is_ok() {
+            format!("'{cell}' is not a number: the decimal point must be '.', not ','")
+        } else {
+            format!("{e} (expected e.g. 12, -3.5 or 1.2e3, or a missing-value marker)")
         }
-        i += 1;
-    }
-    if digits == 0 {
-        return false;
-    }
-    if i < b.len() && (b[i] == b'e' || b[i] == b'E') {
-        i += 1;
-        if i < b.len() && (b[i] == b'+' || b[i] == b'-') {
-            i += 1;
-        }
-        let start = i;
-        while i < b.len() && b[i].is_ascii_digit() {
-            i += 1;
-        }
-        if i == start {
-            return false;
-        }
-    }
-    i == b.len()
+    })
 }

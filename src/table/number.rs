@@ -65,7 +65,7 @@ pub fn parse_number(text: &str) -> Result<f64, NumberError> {
     if i != b.len() {
         return Err(err(match b[i] {
             b',' => {
-                "a comma is neither a decimal mark nor a thousands separator here; write 1234.5"
+                "a comma is neither a decimal mark nor a thousands separator here; write numbers with a point and no grouping, e.g. 1234.5"
             }
             b' ' | b'_' | b'\'' => "digit grouping is not allowed; write the digits together",
             b'%' => "a percent sign is not allowed; write the number itself",
