@@ -10,4 +10,8 @@ IFS='|'
 "$bin" inspect $ramp --background '#fbfaf7' > sample-output/inspect-wetland-ramp.txt
 # shellcheck disable=SC2086
 "$bin" inspect $ramp --background '#fbfaf7' --json > sample-output/inspect-wetland-ramp.json
+unset IFS
+"$bin" palette make --scheme sequential --classes 5 --hues 200 --background '#fbfaf7' --ramp 11 --json > sample-output/palette-sequential-5.json
+"$bin" palette make --scheme diverging --classes 7 --background '#fbfaf7' --json > sample-output/palette-diverging-7.json
+"$bin" palette make --scheme qualitative --classes 6 --background '#fbfaf7' --json > sample-output/palette-qualitative-6.json
 echo "sample-output rebuilt"
