@@ -16,27 +16,11 @@
 use std::time::{Duration, Instant};
 
 use hueproof::classify::{self, Method, Sample};
+use hueproof::random::SplitMix64;
 
 const N: usize = 1_000_000;
 const K: usize = 7;
 const RUNS: usize = 7;
-
-struct SplitMix64(u64);
-
-impl SplitMix64 {
-    fn next_u64(&mut self) -> u64 {
-        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
-        let mut z = self.0;
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        z ^ (z >> 31)
-    }
-
-    /// Uniform in (0, 1).
-    fn uniform(&mut self) -> f64 {
-        ((self.next_u64() >> 11) as f64 + 0.5) / (1u64 << 53) as f64
-    }
-}
 
 fn lognormal(n: usize, seed: u64) -> Vec<f64> {
     let mut rng = SplitMix64(seed);

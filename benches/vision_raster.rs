@@ -11,24 +11,13 @@
 
 use std::time::{Duration, Instant};
 
+use hueproof::random::SplitMix64;
 use hueproof::vision::raster::{simulate_rgba8, simulate_rgba8_serial};
 use hueproof::vision::{Deficiency, Simulation, View};
 
 const W: usize = 4000;
 const H: usize = 3000;
 const RUNS: usize = 7;
-
-/// A small deterministic generator (splitmix64).
-struct Mix(u64);
-impl Mix {
-    fn next(&mut self) -> u64 {
-        self.0 = self.0.wrapping_add(0x9E37_79B9_7F4A_7C15);
-        let mut z = self.0;
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        z ^ (z >> 31)
-    }
-}
 
 fn figure_like() -> Vec<u8> {
     // Seven class fills from a smooth field; pixels straddling a class
@@ -68,10 +57,10 @@ fn figure_like() -> Vec<u8> {
 }
 
 fn noise() -> Vec<u8> {
-    let mut m = Mix(42);
+    let mut m = SplitMix64(42);
     let mut buf = vec![255u8; W * H * 4];
     for px in buf.chunks_exact_mut(4) {
-        let r = m.next();
+        let r = m.next_u64();
         px[0] = r as u8;
         px[1] = (r >> 8) as u8;
         px[2] = (r >> 16) as u8;

@@ -48,6 +48,7 @@ pub mod geo;
 pub mod inspect;
 pub mod join;
 pub mod output;
+pub mod random;
 pub mod raster;
 pub mod report;
 pub mod scheme;

@@ -46,14 +46,13 @@ impl Grid {
 
     /// Offset in cell units of vertex `k` on a border (splitmix64 hash).
     fn offset(&self, kind: u64, i: usize, j: usize, k: usize) -> f64 {
-        let mut z = self.seed
-            ^ kind.wrapping_mul(0x9E37_79B9_7F4A_7C15)
-            ^ (i as u64).wrapping_mul(0xBF58_476D_1CE4_E5B9)
-            ^ (j as u64).wrapping_mul(0x94D0_49BB_1331_11EB)
-            ^ (k as u64).wrapping_mul(0x2545_F491_4F6C_DD1D);
-        z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-        z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-        z ^= z >> 31;
+        let z = crate::random::finalize(
+            self.seed
+                ^ kind.wrapping_mul(0x9E37_79B9_7F4A_7C15)
+                ^ (i as u64).wrapping_mul(0xBF58_476D_1CE4_E5B9)
+                ^ (j as u64).wrapping_mul(0x94D0_49BB_1331_11EB)
+                ^ (k as u64).wrapping_mul(0x2545_F491_4F6C_DD1D),
+        );
         ((z >> 11) as f64 / (1u64 << 53) as f64 - 0.5) * 0.2
     }
 

@@ -17,6 +17,7 @@ use crate::color::{Lab, Oklch, Srgb, ciede2000};
 use crate::vision::{Simulation, View};
 
 use super::{Context, to_8bit};
+use crate::random::SplitMix64;
 
 /// Options of a qualitative scheme.
 #[derive(Debug, Clone, PartialEq)]
@@ -121,14 +122,6 @@ fn candidates(
     out
 }
 
-/// A small deterministic generator (splitmix64).
-fn mix(seed: u64) -> u64 {
-    let mut z = seed.wrapping_add(0x9E37_79B9_7F4A_7C15);
-    z = (z ^ (z >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
-    z = (z ^ (z >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
-    z ^ (z >> 31)
-}
-
 /// Generate a qualitative palette.
 pub fn generate(opts: &Options, ctx: &Context) -> Outcome {
     let all_sims = ctx.simulations();
@@ -184,7 +177,7 @@ pub fn generate(opts: &Options, ctx: &Context) -> Outcome {
         let eligible = |c: &usize| hue_ok(hint(i), cands[*c].hue) && !slot.contains(&Some(*c));
         let pick = if slot.iter().all(Option::is_none) {
             let pool: Vec<usize> = (0..cands.len()).filter(eligible).collect();
-            pool[(mix(opts.seed) % pool.len() as u64) as usize]
+            pool[(SplitMix64(opts.seed).next_u64() % pool.len() as u64) as usize]
         } else {
             let best = (0..cands.len())
                 .filter(eligible)
