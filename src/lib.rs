@@ -43,7 +43,9 @@ pub mod classify;
 pub mod cli;
 pub mod color;
 pub mod error;
+pub mod figure;
 pub mod findings;
+pub mod font;
 pub mod geo;
 pub mod inspect;
 pub mod join;
@@ -52,6 +54,7 @@ pub mod random;
 pub mod raster;
 pub mod report;
 pub mod scheme;
+pub mod spec;
 pub mod table;
 pub mod vision;
 

@@ -1,5 +1,5 @@
 //! The raster stage: SVG to pixels with resvg, with the fonts embedded in
-//! the binary (DejaVu Sans, licence in `src/raster/fonts/`), so text renders
+//! the binary (DejaVu Sans, licence in `src/font/`), so text renders
 //! identically on any machine; and PNG files with their DPI stored.
 //!
 //! SVG user units are CSS pixels (96 per inch); rendering at `dpi` scales by
@@ -20,11 +20,8 @@ use resvg::usvg;
 use crate::color::Srgb;
 use crate::error::{Error, Result};
 
-const REGULAR: &[u8] = include_bytes!("fonts/DejaVuSans.ttf");
-const BOLD: &[u8] = include_bytes!("fonts/DejaVuSans-Bold.ttf");
-
-/// The family name of the embedded font.
-pub const FONT_FAMILY: &str = "DejaVu Sans";
+pub use crate::font::FAMILY as FONT_FAMILY;
+use crate::font::{BOLD, REGULAR};
 
 /// The largest raster hueproof renders, in pixels (width times height).
 pub const MAX_PIXELS: u64 = 200_000_000;

@@ -4,6 +4,7 @@
 
 pub mod csv_read;
 pub mod number;
+pub mod text;
 
 pub use csv_read::{Cell, Row, Table, TableOptions, read_table_file, read_table_str};
 pub use number::{NumberError, parse_number};
