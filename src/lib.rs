@@ -42,6 +42,8 @@
 pub mod classify;
 pub mod cli;
 pub mod color;
+pub mod describe;
+pub mod encode;
 pub mod error;
 pub mod figure;
 pub mod findings;
@@ -49,12 +51,16 @@ pub mod font;
 pub mod geo;
 pub mod inspect;
 pub mod join;
+pub mod layout;
 pub mod output;
+pub mod pdf;
 pub mod random;
 pub mod raster;
+pub mod render;
 pub mod report;
 pub mod scheme;
 pub mod spec;
+pub mod svg;
 pub mod table;
 pub mod vision;
 

@@ -16,6 +16,7 @@ mod breaks;
 mod inspect;
 mod join;
 mod palette;
+mod render;
 mod seeing;
 mod shapes;
 
@@ -44,6 +45,8 @@ pub enum Command {
     /// Report the projection, area, label point, parts and vertices of each
     /// shape, and every geometry problem.
     Shapes(shapes::ShapesArgs),
+    /// Render a figure spec (TOML) to SVG, PNG and PDF.
+    Render(render::RenderArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -76,6 +79,7 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::Breaks(args) => breaks::run(args),
         Command::Join(args) => join::run(args),
         Command::Shapes(args) => shapes::run(args),
+        Command::Render(args) => render::run(args),
     }
 }
 
