@@ -60,6 +60,7 @@ pub mod render;
 pub mod report;
 pub mod scheme;
 pub mod spec;
+// TEMP pub mod starter;
 pub mod svg;
 pub mod table;
 pub mod vision;
