@@ -31,6 +31,7 @@
 //! - [`join`]: shapes joined to table rows by key, and the join report.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
+//! - [`demo`]: the built-in demo dataset (an invented island, for the demo only).
 //! - [`cli`]: the command line, a thin layer over the stages.
 //!
 //! An audit by hueproof is an aid to design and review. It is not a
@@ -42,6 +43,7 @@
 pub mod classify;
 pub mod cli;
 pub mod color;
+pub mod demo;
 pub mod describe;
 pub mod encode;
 pub mod error;
@@ -60,7 +62,7 @@ pub mod render;
 pub mod report;
 pub mod scheme;
 pub mod spec;
-// TEMP pub mod starter;
+pub mod starter;
 pub mod svg;
 pub mod table;
 pub mod vision;

@@ -19,7 +19,7 @@ mod palette;
 mod render;
 mod seeing;
 mod shapes;
-// TEMP mod starter;
+mod starter;
 
 /// hueproof: colours that fit the data, proven on the rendered figure.
 #[derive(Debug, Parser)]
@@ -48,11 +48,11 @@ pub enum Command {
     Shapes(shapes::ShapesArgs),
     /// Render a figure spec (TOML) to SVG, PNG and PDF.
     Render(render::RenderArgs),
-    // TEMPDOC Write a starter spec (and the demo data it uses); `new list` lists
-    // TEMPDOC the templates.
-    // TEMP New(starter::NewArgs),
-    // TEMPDOC Render every template against the built-in demo data.
-    // TEMP Demo(starter::DemoArgs),
+    /// Write a starter spec (and the demo data it uses); `new list` lists
+    /// the templates.
+    New(starter::NewArgs),
+    /// Render every template against the built-in demo data.
+    Demo(starter::DemoArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -86,8 +86,8 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::Join(args) => join::run(args),
         Command::Shapes(args) => shapes::run(args),
         Command::Render(args) => render::run(args),
-        // TEMP Command::New
-        // TEMP Command::Demo
+        Command::New(args) => starter::run_new(args),
+        Command::Demo(args) => starter::run_demo(args),
     }
 }
 
