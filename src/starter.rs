@@ -21,14 +21,46 @@ pub struct Template {
 
 /// Every starter spec, one per figure kind and the main variants.
 pub const TEMPLATES: [Template; 8] = [
-    Template { name: "choropleth", about: "classed choropleth of ratio data (sequential)", text: include_str!("../templates/choropleth.toml") },
-    Template { name: "diverging-map", about: "choropleth of interval data around a midpoint (diverging)", text: include_str!("../templates/diverging-map.toml") },
-    Template { name: "categories-map", about: "choropleth of nominal categories (qualitative)", text: include_str!("../templates/categories-map.toml") },
-    Template { name: "dot-plot", about: "dot plot of two numeric columns, coloured by category, with emphasis", text: include_str!("../templates/dot-plot.toml") },
-    Template { name: "ranked-dots", about: "ranked dot chart", text: include_str!("../templates/ranked-dots.toml") },
-    Template { name: "dot-map", about: "dot map by longitude and latitude, continuous colour", text: include_str!("../templates/dot-map.toml") },
-    Template { name: "map-panels", about: "small multiples of a choropleth, one panel per year", text: include_str!("../templates/map-panels.toml") },
-    Template { name: "dot-panels", about: "small multiples of a dot plot, one panel per year", text: include_str!("../templates/dot-panels.toml") },
+    Template {
+        name: "choropleth",
+        about: "classed choropleth of ratio data (sequential)",
+        text: include_str!("../templates/choropleth.toml"),
+    },
+    Template {
+        name: "diverging-map",
+        about: "choropleth of interval data around a midpoint (diverging)",
+        text: include_str!("../templates/diverging-map.toml"),
+    },
+    Template {
+        name: "categories-map",
+        about: "choropleth of nominal categories (qualitative)",
+        text: include_str!("../templates/categories-map.toml"),
+    },
+    Template {
+        name: "dot-plot",
+        about: "dot plot of two numeric columns, coloured by category, with emphasis",
+        text: include_str!("../templates/dot-plot.toml"),
+    },
+    Template {
+        name: "ranked-dots",
+        about: "ranked dot chart",
+        text: include_str!("../templates/ranked-dots.toml"),
+    },
+    Template {
+        name: "dot-map",
+        about: "dot map by longitude and latitude, continuous colour",
+        text: include_str!("../templates/dot-map.toml"),
+    },
+    Template {
+        name: "map-panels",
+        about: "small multiples of a choropleth, one panel per year",
+        text: include_str!("../templates/map-panels.toml"),
+    },
+    Template {
+        name: "dot-panels",
+        about: "small multiples of a dot plot, one panel per year",
+        text: include_str!("../templates/dot-panels.toml"),
+    },
 ];
 
 /// The folder, beside a spec, that holds the demo data.
@@ -45,7 +77,10 @@ pub fn template(name: &str) -> Result<Template> {
         .unwrap_or_default();
     Err(Error::Usage {
         what: "KIND".into(),
-        message: format!("no template '{name}'; the templates are: {}.{hint}", names.join(", ")),
+        message: format!(
+            "no template '{name}'; the templates are: {}.{hint}",
+            names.join(", ")
+        ),
     })
 }
 
@@ -72,7 +107,10 @@ pub struct Written {
 /// Write the demo data into `dir`, leaving files that already exist as
 /// they are (a warning names any that differ from the demo's).
 fn write_data_keeping(dir: &Path, w: &mut Written) -> Result<()> {
-    std::fs::create_dir_all(dir).map_err(|source| Error::Write { path: dir.to_path_buf(), source })?;
+    std::fs::create_dir_all(dir).map_err(|source| Error::Write {
+        path: dir.to_path_buf(),
+        source,
+    })?;
     for (name, text) in demo_files() {
         let p = dir.join(name);
         match std::fs::read(&p) {
@@ -98,7 +136,10 @@ pub fn new_spec(name: &str, out: &Path) -> Result<Written> {
     if out.exists() {
         return Err(Error::Usage {
             what: "--output".into(),
-            message: format!("'{}' already exists; choose another name (existing files are never replaced)", out.display()),
+            message: format!(
+                "'{}' already exists; choose another name (existing files are never replaced)",
+                out.display()
+            ),
         });
     }
     let mut w = Written::default();
@@ -126,7 +167,8 @@ pub fn demo(dir: &Path, pdf: bool) -> Result<Written> {
         w.files.push(spec.clone());
         let fig = figure::load(&spec)?;
         let r = render::render(fig)?;
-        w.warnings.extend(r.warnings.iter().map(|m| format!("{}: {m}", t.name)));
+        w.warnings
+            .extend(r.warnings.iter().map(|m| format!("{}: {m}", t.name)));
         w.files.extend(render::write_files(&r, &spec, &formats)?);
     }
     Ok(w)

@@ -55,7 +55,9 @@ pub fn run_new(args: NewArgs) -> Result<Outcome, Error> {
         }
         return Ok(Outcome::success(s));
     }
-    let out = args.output.unwrap_or_else(|| PathBuf::from(format!("{}.toml", args.kind)));
+    let out = args
+        .output
+        .unwrap_or_else(|| PathBuf::from(format!("{}.toml", args.kind)));
     Ok(report(starter::new_spec(&args.kind, &out)?))
 }
 

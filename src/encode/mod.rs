@@ -451,8 +451,15 @@ fn numeric(
         .map(|i| {
             let lo = if i == 0 { c.min } else { c.breaks[i - 1] };
             let hi = c.breaks[i];
+            // An en dash between bounds; "to" when a bound is negative, so
+            // a minus sign never sits next to the dash.
+            let sep = if lo < 0.0 || hi < 0.0 {
+                " to "
+            } else {
+                "\u{2013}"
+            };
             let text = format!(
-                "{}\u{2013}{}",
+                "{}{sep}{}",
                 label::number(lo, decimals),
                 label::number(hi, decimals)
             );

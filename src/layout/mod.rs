@@ -376,9 +376,7 @@ fn map_panels(fig: &Figure, enc: &Encoding, frames: &[Rect]) -> Vec<Group> {
                     .collect(),
             }
         };
-        let mut pg = Group::role("panel");
-        pg.id = Some(format!("p{}", p + 1));
-        pg.attrs.push(("data-panel", fig.panels[p].clone()));
+        let mut pg = Group::role("map");
         pg.clip = Some([fr.x, fr.y, fr.w, fr.h]);
         let context = |below: bool| {
             let mut g = Group::role(if below {
@@ -480,7 +478,11 @@ fn map_panels(fig: &Figure, enc: &Encoding, frames: &[Rect]) -> Vec<Group> {
         if !above.children.is_empty() {
             pg.push_group(above);
         }
-        out.push(pg);
+        let mut panel = Group::role("panel");
+        panel.id = Some(format!("p{}", p + 1));
+        panel.attrs.push(("data-panel", fig.panels[p].clone()));
+        panel.push_group(pg);
+        out.push(panel);
     }
     out
 }
@@ -588,7 +590,6 @@ fn plot_panels(fig: &Figure, enc: &Encoding, frames: &[Rect]) -> Vec<Group> {
         pg.id = Some(format!("p{}", p + 1));
         pg.attrs.push(("data-panel", fig.panels[p].clone()));
         let mut ax = Group::role("axes");
-        ax.paint.stroke = Some((color, 0.5));
         for v in &xt.values {
             let x = sx(*v);
             if axes.grid {
@@ -600,10 +601,13 @@ fn plot_panels(fig: &Figure, enc: &Encoding, frames: &[Rect]) -> Vec<Group> {
                     .stroke(grid_color, 0.4),
                 );
             }
-            ax.push(Node::new(Shape::Lines(vec![vec![
-                [x, inner.y + inner.h],
-                [x, inner.y + inner.h + size * 0.3],
-            ]])));
+            ax.push(
+                Node::new(Shape::Lines(vec![vec![
+                    [x, inner.y + inner.h],
+                    [x, inner.y + inner.h + size * 0.3],
+                ]]))
+                .stroke(color, 0.5),
+            );
             ax.push(text(
                 [x, inner.y + inner.h + size * 1.3],
                 &label::number(*v, xt.decimals),
@@ -625,10 +629,13 @@ fn plot_panels(fig: &Figure, enc: &Encoding, frames: &[Rect]) -> Vec<Group> {
                             .stroke(grid_color, 0.4),
                         );
                     }
-                    ax.push(Node::new(Shape::Lines(vec![vec![
-                        [inner.x - size * 0.3, y],
-                        [inner.x, y],
-                    ]])));
+                    ax.push(
+                        Node::new(Shape::Lines(vec![vec![
+                            [inner.x - size * 0.3, y],
+                            [inner.x, y],
+                        ]]))
+                        .stroke(color, 0.5),
+                    );
                     ax.push(text(
                         [inner.x - size * 0.45, y + size * 0.35],
                         l,
@@ -666,7 +673,8 @@ fn plot_panels(fig: &Figure, enc: &Encoding, frames: &[Rect]) -> Vec<Group> {
                 [inner.x, inner.y + inner.h],
                 [inner.x + inner.w, inner.y + inner.h],
             ]]))
-            .fill(Fill::None),
+            .fill(Fill::None)
+            .stroke(color, 0.5),
         );
         pg.push_group(ax);
         for (id, members) in by_class(fig, enc, p) {
