@@ -31,6 +31,7 @@
 //! - [`join`]: shapes joined to table rows by key, and the join report.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
+//! - [`spec`]: spec files: spelling suggestions and key positions in TOML.
 //! - [`pdf`]: SVG figures to one-page PDF, text drawn as paths.
 //! - [`demo`]: the built-in demo dataset (an invented island, for the demo only).
 //! - [`cli`]: the command line, a thin layer over the stages.
@@ -56,6 +57,7 @@ pub mod random;
 pub mod raster;
 pub mod report;
 pub mod scheme;
+pub mod spec;
 pub mod table;
 pub mod vision;
 

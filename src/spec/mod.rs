@@ -1,0 +1,3 @@
+//! The figure specification: TOML spec files, with helpers that point messages at the right place.
+pub mod locate;
+pub mod suggest;
