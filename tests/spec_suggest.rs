@@ -62,7 +62,10 @@ fn ties_go_to_the_first_candidate() {
 #[test]
 fn the_limit_is_max_of_one_and_a_third() {
     // "abcdef" folds to 6 characters: two edits allowed, three not.
+    assert_eq!(max_distance(0), 1);
+    assert_eq!(max_distance(5), 1);
     assert_eq!(max_distance(6), 2);
+    assert_eq!(max_distance(12), 4);
     assert_eq!(closest("abcdef", &["abcdxy"]), Some("abcdxy"));
     assert_eq!(closest("abcdef", &["abcxyz"]), None);
     // Short words always allow one edit.

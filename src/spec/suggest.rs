@@ -87,12 +87,4 @@ mod tests {
             Some("line_width")
         );
     }
-
-    #[test]
-    fn limit_grows_with_length() {
-        assert_eq!(max_distance(0), 1);
-        assert_eq!(max_distance(5), 1);
-        assert_eq!(max_distance(6), 2);
-        assert_eq!(max_distance(12), 4);
-    }
 }
