@@ -500,3 +500,20 @@ fn water_geojson(s: &Scenario) -> String {
     out.push_str("\n]}\n");
     out
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn one_of_the_first_seeds_gives_the_layout() {
+        // The retry loop over seeds must stay short.
+        let s = scenario();
+        assert!(
+            s.seed.wrapping_sub(DEMO_SEED) < 20,
+            "{}",
+            s.seed - DEMO_SEED
+        );
+        assert_eq!(s.tess.rings.len(), DISTRICTS);
+    }
+}
