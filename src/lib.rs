@@ -31,7 +31,14 @@
 //! - [`join`]: shapes joined to table rows by key, and the join report.
 //! - [`inspect`]: the measurements behind `hueproof inspect`.
 //! - [`report`]: text and JSON renderings of those measurements.
-//! - [`pdf`]: SVG figures to one-page PDF, text drawn as paths.
+//! - Figures, one stage each: [`spec`] (the TOML spec file, located
+//!   errors and "did you mean"), [`figure`] (the validated figure model:
+//!   data read by level of measurement, joined and projected), [`encode`]
+//!   (classes and their colours), [`layout`] (the page as a display
+//!   list, legends, ticks), [`svg`] (accessible SVG), [`describe`] (the
+//!   plain-language description), [`pdf`] (one-page PDF, text drawn as
+//!   paths) and [`render`] (the files). [`font`] is the embedded font and
+//!   its metrics; [`starter`] the templates, `new` and `demo`.
 //! - [`demo`]: the built-in demo dataset (an invented island, for the demo only).
 //! - [`cli`]: the command line, a thin layer over the stages.
 //!

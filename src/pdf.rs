@@ -8,7 +8,10 @@
 //! searchable in the PDF). The flattened tree is written back as SVG and
 //! handed to the general-purpose `svg2pdf` crate, which brings its own
 //! (older) usvg. The output holds no date or random identifier, so the same
-//! SVG gives the same bytes.
+//! SVG gives the same bytes. (svg2pdf 0.13 writes the entries of resource
+//! dictionaries in hash-map order, which changes from run to run; they are
+//! put in sorted order afterwards, in place, so the cross-reference offsets
+//! stay valid.)
 //!
 //! Not supported, and refused with a message rather than silently left
 //! out: raster images and filter effects (our figures use neither), and
@@ -56,12 +59,77 @@ pub fn svg_to_pdf(name: &Path, svg: &[u8]) -> Result<Vec<u8>> {
     // usvg sizes are CSS pixels (96 per inch); at 96 dpi svg2pdf makes the
     // page 72/96 pt per pixel, which is mm * 72 / 25.4.
     let page = svg2pdf::PageOptions { dpi: 96.0 };
-    svg2pdf::to_pdf(&tree, options, page).map_err(|e| match e {
+    let mut pdf = svg2pdf::to_pdf(&tree, options, page).map_err(|e| match e {
         svg2pdf::ConversionError::UnknownError => {
             Error::Internal(format!("{}: PDF conversion failed: {e}", name.display()))
         }
         _ => invalid(format!("cannot be converted to PDF: {e}")),
-    })
+    })?;
+    sort_resource_entries(&mut pdf);
+    Ok(pdf)
+}
+
+/// The resource dictionaries whose entries svg2pdf writes in hash order.
+const RESOURCE_KINDS: [&[u8]; 6] = [
+    b"/XObject <<\n",
+    b"/ExtGState <<\n",
+    b"/Pattern <<\n",
+    b"/Shading <<\n",
+    b"/ColorSpace <<\n",
+    b"/Font <<\n",
+];
+
+/// Sort the entries of every resource dictionary, in place. The writer
+/// puts one `/name N 0 R` entry per line between a `/Kind <<` line and a
+/// `>>` line; sorting the lines keeps the file's length and every object's
+/// offset. Stream data is skipped; a block of any other shape is left as
+/// it is.
+fn sort_resource_entries(pdf: &mut [u8]) {
+    let mut i = 0;
+    while i < pdf.len() {
+        if pdf[i..].starts_with(b"stream\n") {
+            match find_bytes(&pdf[i..], b"\nendstream") {
+                Some(k) => i += k + b"\nendstream".len(),
+                None => return,
+            }
+            continue;
+        }
+        let Some(kind) = RESOURCE_KINDS.iter().find(|k| pdf[i..].starts_with(k)) else {
+            i += 1;
+            continue;
+        };
+        let body = i + kind.len();
+        let mut lines: Vec<Vec<u8>> = Vec::new();
+        let mut at = body;
+        let mut closed = false;
+        while let Some(len) = pdf[at..].iter().position(|&b| b == b'\n') {
+            let line = &pdf[at..at + len];
+            let text = line.trim_ascii();
+            if text == b">>" {
+                closed = true;
+                break;
+            }
+            if !(text.starts_with(b"/") && text.ends_with(b" R")) {
+                break;
+            }
+            lines.push(line.to_vec());
+            at += len + 1;
+        }
+        if closed && lines.len() > 1 {
+            lines.sort();
+            let mut w = body;
+            for line in &lines {
+                pdf[w..w + line.len()].copy_from_slice(line);
+                pdf[w + line.len()] = b'\n';
+                w += line.len() + 1;
+            }
+        }
+        i = at.max(i + 1);
+    }
+}
+
+fn find_bytes(hay: &[u8], needle: &[u8]) -> Option<usize> {
+    hay.windows(needle.len()).position(|w| w == needle)
 }
 
 /// The first thing in the tree that PDF output does not handle.

@@ -144,3 +144,69 @@ fn clip_paths_gradients_and_opacity_convert() {
     let b = media_box(&pdf);
     assert!((b[2] - 120.0 * 72.0 / 25.4).abs() < 0.01, "{b:?}");
 }
+
+#[test]
+fn many_resources_still_give_the_same_bytes() {
+    // Several translucent groups and gradients: each needs a named
+    // resource in the page's resource dictionary.
+    let mut svg = String::from(
+        r##"<svg xmlns="http://www.w3.org/2000/svg" width="60mm" height="60mm" viewBox="0 0 600 600"><defs>"##,
+    );
+    for i in 0..8 {
+        svg.push_str(&format!(
+            r##"<linearGradient id="g{i}"><stop offset="0" stop-color="#{:02x}2040"/><stop offset="1" stop-color="#ffffff"/></linearGradient>"##,
+            i * 30
+        ));
+    }
+    svg.push_str("</defs>");
+    for i in 0..8 {
+        svg.push_str(&format!(
+            r##"<g opacity="0.{}"><rect x="{}" y="{}" width="100" height="100" fill="url(#g{i})"/></g>"##,
+            i + 1,
+            i * 60,
+            i * 60
+        ));
+    }
+    svg.push_str("</svg>");
+    let first = convert(&svg);
+    for _ in 0..5 {
+        assert_eq!(convert(&svg), first);
+    }
+    // Every in-use cross-reference entry points at its object (ISO
+    // 32000-1 section 7.5.4: "nnnnnnnnnn ggggg n" entries, byte offsets).
+    let text = String::from_utf8_lossy(&first).to_string();
+    let xref = text.rfind("\nxref\n").expect("a cross-reference table") + 6;
+    let mut lines = text[xref..].lines();
+    let header: Vec<usize> = lines
+        .next()
+        .unwrap()
+        .split(' ')
+        .map(|v| v.parse().unwrap())
+        .collect();
+    let mut checked = 0;
+    for n in header[0]..header[0] + header[1] {
+        let entry = lines.next().unwrap();
+        if entry.trim_end().ends_with('n') {
+            let offset: usize = entry[..10].parse().unwrap();
+            let head = format!("{n} 0 obj");
+            assert_eq!(
+                &first[offset..offset + head.len()],
+                head.as_bytes(),
+                "object {n}"
+            );
+            checked += 1;
+        }
+    }
+    assert!(checked > 20, "{checked} objects");
+    let doc = lopdf::Document::load_mem(&first).unwrap();
+    let id = *doc.get_pages().values().next().unwrap();
+    let resources = doc.get_dictionary(id).unwrap().get(b"Resources").unwrap();
+    let gs = resources
+        .as_dict()
+        .unwrap()
+        .get(b"ExtGState")
+        .unwrap()
+        .as_dict()
+        .unwrap();
+    assert_eq!(gs.len(), 8, "one graphics state per opacity");
+}

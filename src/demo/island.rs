@@ -339,3 +339,47 @@ impl Terrain {
         self.peak
     }
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn simple_ring_check_rejects_crossings_touches_and_repeats() {
+        let square = [[0.0, 0.0], [1.0, 0.0], [1.0, 1.0], [0.0, 1.0]];
+        assert!(is_simple(&square));
+        let bow_tie = [[0.0, 0.0], [1.0, 1.0], [1.0, 0.0], [0.0, 1.0]];
+        assert!(!is_simple(&bow_tie));
+        // Out and back along a line: what clipping leaves when a cell cuts
+        // the island in two.
+        let corridor = [
+            [0.0, 0.0],
+            [1.0, 0.0],
+            [1.0, 1.0],
+            [2.0, 1.0],
+            [2.0, 2.0],
+            [1.0, 2.0],
+            [1.0, 1.0],
+            [0.0, 1.0],
+        ];
+        assert!(!is_simple(&corridor));
+        assert!(!is_simple(&[
+            [0.0, 0.0],
+            [1.0, 0.0],
+            [1.0, 0.0],
+            [0.0, 1.0]
+        ]));
+    }
+
+    #[test]
+    fn the_coastline_is_star_shaped_and_counter_clockwise() {
+        let c = coastline(7);
+        assert!(ring_signed_area(&c) > 0.0);
+        let lonlat: Vec<[f64; 2]> = c.iter().map(|&p| to_lonlat(p)).collect();
+        assert!(is_simple(&lonlat));
+        for p in &c {
+            let r = (p[0] * p[0] + p[1] * p[1]).sqrt();
+            assert!((0.6 * RADIUS..1.4 * RADIUS).contains(&r), "{r}");
+        }
+    }
+}
