@@ -68,6 +68,7 @@ mod tests {
         assert_eq!(number(1_000_000.0, 0), "1,000,000");
         assert_eq!(decimals_for(&[5.0, 20.0, 45.0]), 0);
         assert_eq!(decimals_for(&[0.25, 0.5, 0.75]), 2);
-        assert_eq!(decimals_for(&[12.31, 12.36]), 2);
+        assert_eq!(decimals_for(&[12.31, 12.36]), 1);
+        assert_eq!(decimals_for(&[0.012, 0.034]), 3);
     }
 }

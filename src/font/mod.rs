@@ -113,6 +113,6 @@ mod tests {
         let space = text_width(" ", 1.0, false);
         assert!(space > 0.25 && space < 0.4, "{space}");
         assert!(text_width("Bold", 10.0, true) > text_width("Bold", 10.0, false));
-        assert_eq!(wrap("one two three", 10.0, false, 40.0).len(), 2);
+        assert_eq!(wrap("one two three", 10.0, false, 60.0).len(), 2);
     }
 }
