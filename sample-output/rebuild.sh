@@ -14,4 +14,7 @@ unset IFS
 "$bin" palette make --scheme sequential --classes 5 --hues 200 --background '#fbfaf7' --ramp 11 --json > sample-output/palette-sequential-5.json
 "$bin" palette make --scheme diverging --classes 7 --background '#fbfaf7' --json > sample-output/palette-diverging-7.json
 "$bin" palette make --scheme qualitative --classes 6 --background '#fbfaf7' --json > sample-output/palette-qualitative-6.json
+# The demo figures: data, templates, SVG and PNG (tests/sample_output.rs
+# checks that these files are what the current code renders).
+"$bin" demo --out sample-output > /dev/null
 echo "sample-output rebuilt"

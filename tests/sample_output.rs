@@ -1,0 +1,57 @@
+//! The committed `sample-output/` is what the current code renders: the
+//! demo is rendered into a fresh folder and compared with it, text files
+//! (specs, data, SVG) byte for byte, PNG images pixel by pixel within a
+//! small tolerance (the same renderer on another CPU may round a few edge
+//! pixels differently). Rebuild with `sh sample-output/rebuild.sh`.
+
+use std::path::{Path, PathBuf};
+
+fn decode(p: &Path) -> (u32, u32, Vec<u8>) {
+    let d = png::Decoder::new(std::io::BufReader::new(std::fs::File::open(p).unwrap()));
+    let mut r = d.read_info().unwrap();
+    let mut buf = vec![0; r.output_buffer_size().unwrap()];
+    let info = r.next_frame(&mut buf).unwrap();
+    buf.truncate(info.buffer_size());
+    (info.width, info.height, buf)
+}
+
+#[test]
+fn sample_output_matches_a_fresh_demo() {
+    let dir = std::env::temp_dir().join(format!("hueproof-sample-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    let written = hueproof::starter::demo(&dir, false).unwrap();
+    let committed = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("sample-output");
+    assert!(written.files.len() >= 5 + 3 * hueproof::starter::TEMPLATES.len());
+    for f in &written.files {
+        let rel = f.strip_prefix(&dir).unwrap();
+        let old = committed.join(rel);
+        assert!(
+            old.exists(),
+            "sample-output/{} is missing; run sh sample-output/rebuild.sh",
+            rel.display()
+        );
+        if f.extension().is_some_and(|e| e == "png") {
+            let (w1, h1, a) = decode(f);
+            let (w2, h2, b) = decode(&old);
+            assert_eq!((w1, h1), (w2, h2), "{}", rel.display());
+            let off = a
+                .iter()
+                .zip(&b)
+                .filter(|(x, y)| x.abs_diff(**y) > 8)
+                .count();
+            assert!(
+                off * 1000 <= a.len(),
+                "{}: {off} channel values differ by more than 8 levels",
+                rel.display()
+            );
+        } else {
+            let (a, b) = (std::fs::read(f).unwrap(), std::fs::read(&old).unwrap());
+            assert!(
+                a == b,
+                "sample-output/{} differs from a fresh render; run sh sample-output/rebuild.sh",
+                rel.display()
+            );
+        }
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}
