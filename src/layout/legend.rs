@@ -243,6 +243,27 @@ pub fn legend(fig: &Figure, enc: &Encoding, max_width: f64, horizontal: bool) ->
             } else {
                 entry_w
             });
+            // A diverging classification names its midpoint under the
+            // swatches.
+            if let Some(m) = enc
+                .classification
+                .as_ref()
+                .and_then(|c| c.midpoint.as_ref())
+            {
+                let how = match m.arrangement {
+                    classify::diverging::Arrangement::Break => "a class bound",
+                    classify::diverging::Arrangement::Centre => "the centre of the middle class",
+                };
+                let s = format!("Midpoint {} is {how}", label::number(m.value, enc.decimals));
+                for l in wrap(&s, size, false, max_width) {
+                    y += line;
+                    width = width.max(text_width(&l, size, false));
+                    g.push(
+                        text([0.0, y - size * 0.25], &l, size, false, Anchor::Start)
+                            .attr("data-role", "midpoint"),
+                    );
+                }
+            }
             if fig.legend.histogram && !horizontal {
                 if let Some(c) = &enc.classification {
                     let hw = width.max(size * 10.0).min(max_width);
