@@ -176,3 +176,20 @@ fn missing_data_file_names_it() {
     );
     assert!(e.contains("nope.csv"), "{e}");
 }
+
+#[test]
+fn errors_found_after_classification_still_name_the_line() {
+    let d = dir("late");
+    let p = d.join("fig.toml");
+    std::fs::write(
+        &p,
+        format!("{HEAD}value = \"group\"\nlevel = \"nominal\"\n[plot]\nx = \"x\"\ny = \"y\"\n[marks]\nemphasis = [\"green\"]\n"),
+    )
+    .unwrap();
+    let fig = figure::load(&p).unwrap();
+    let e = hueproof::render::render(fig).unwrap_err();
+    assert_eq!(e.exit_kind(), ExitKind::BadInput);
+    let e = e.to_string();
+    assert!(e.contains("line 13, column 1, key marks.emphasis"), "{e}");
+    assert!(e.contains("'green' is not a class"), "{e}");
+}

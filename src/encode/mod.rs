@@ -185,7 +185,7 @@ fn colours(fig: &Figure, n: usize) -> Result<Vec<Srgb>, Error> {
         if list.len() < n {
             return Err(Error::Invalid {
                 path: fig.spec_path.clone(),
-                location: Some("key colors.list".into()),
+                location: Some(fig.locate("colors.list")),
                 message: format!(
                     "{} colour(s) listed but the figure has {n} classes; list one colour per class",
                     list.len()
@@ -294,7 +294,7 @@ pub fn encode(fig: &Figure) -> Result<Encoding, Error> {
         if cats.len() > 12 {
             return Err(Error::Invalid {
                 path: fig.spec_path.clone(),
-                location: Some("key data.level".into()),
+                location: Some(fig.locate("data.level")),
                 message: format!(
                     "{} categories is more than the 12 that colours can keep apart; group them, or treat the values as interval or ratio data",
                     cats.len()
@@ -496,7 +496,7 @@ fn emphasise(fig: &Figure, enc: &mut Encoding) -> Result<(), Error> {
             let known: Vec<&str> = enc.classes.iter().map(|c| c.label.as_str()).collect();
             return Err(Error::Invalid {
                 path: fig.spec_path.clone(),
-                location: Some("key marks.emphasis".into()),
+                location: Some(fig.locate("marks.emphasis")),
                 message: format!(
                     "'{n}' is not a class of this figure; the classes are: {}",
                     known.join(", ")

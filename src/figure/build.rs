@@ -533,6 +533,10 @@ pub fn build(file: &SpecFile) -> Result<Figure, Error> {
         items: Vec::new(),
         projection: None,
         simplify: 0.0,
+        locations: ["colors.list", "data.level", "marks.emphasis"]
+            .iter()
+            .map(|k| (k.to_string(), file.location(k)))
+            .collect(),
         warnings: Vec::new(),
     };
     match kind {

@@ -364,6 +364,19 @@ pub struct Figure {
     pub projection: Option<String>,
     /// Simplification tolerance, points (0: off).
     pub simplify: f64,
+    /// Where keys that later stages may report on sit in the spec
+    /// (`line L, column C, key K`), by key.
+    pub locations: Vec<(String, String)>,
     /// Things the user should know.
     pub warnings: Vec<String>,
+}
+
+impl Figure {
+    /// The location of a spec key for error messages.
+    pub fn locate(&self, key: &str) -> String {
+        self.locations
+            .iter()
+            .find(|(k, _)| k == key)
+            .map_or_else(|| format!("key {key}"), |(_, l)| l.clone())
+    }
 }

@@ -72,9 +72,9 @@ impl SpecFile {
         }
     }
 
-    /// An error about the value at `key` (a dotted path such as
-    /// `map.border_width` or `colors.list.2`), located in the file.
-    pub fn error(&self, key: &str, message: impl Into<String>) -> Error {
+    /// Where `key` (a dotted path) sits: `line L, column C, key K`, or
+    /// `key K` when it is not written in the file.
+    pub fn location(&self, key: &str) -> String {
         let steps: Vec<Step> = key
             .split('.')
             .map(|s| match s.parse::<usize>() {
@@ -82,13 +82,18 @@ impl SpecFile {
                 Err(_) => Step::Key(s),
             })
             .collect();
-        let loc = match find(&self.text, &steps) {
+        match find(&self.text, &steps) {
             Some(span) => location(&self.text, span.start, Some(key)),
             None => format!("key {key}"),
-        };
+        }
+    }
+
+    /// An error about the value at `key` (a dotted path such as
+    /// `map.border_width` or `colors.list.2`), located in the file.
+    pub fn error(&self, key: &str, message: impl Into<String>) -> Error {
         Error::Invalid {
             path: self.path.clone(),
-            location: Some(loc),
+            location: Some(self.location(key)),
             message: message.into(),
         }
     }
