@@ -90,3 +90,49 @@ pub fn inside(lo: f64, hi: f64, n: usize) -> Ticks {
     t.values.retain(|v| *v >= lo - eps && *v <= hi + eps);
     t
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn steps_are_one_two_or_five_times_a_power_of_ten() {
+        // Heckbert (1990): nice numbers are 1, 2, 5 and 10 times powers of
+        // ten; loose labelling widens the range to whole steps.
+        for (lo, hi) in [
+            (0.0, 1.0),
+            (3.2, 97.5),
+            (-12.0, 15.0),
+            (0.0012, 0.0097),
+            (700.0, 2400.0),
+            (1e6, 3.7e6),
+        ] {
+            let t = loose(lo, hi, 5);
+            let m = t.step / 10f64.powf(t.step.log10().floor());
+            assert!(
+                [1.0, 2.0, 5.0].iter().any(|n| (m - n).abs() < 1e-9),
+                "{lo}..{hi}: step {}",
+                t.step
+            );
+            assert!(t.lo <= lo && t.hi >= hi, "{t:?}");
+            assert!((3..=11).contains(&t.values.len()), "{t:?}");
+            assert!(
+                t.values
+                    .windows(2)
+                    .all(|w| (w[1] - w[0] - t.step).abs() < t.step * 1e-6)
+            );
+        }
+        // From memory of the paper's method on a common case: 0..100 with
+        // about five ticks gives a step of 20 (range rounded up to 100, then
+        // 100 / 4 = 25 rounded to the nice 20).
+        let t = loose(0.0, 100.0, 5);
+        assert_eq!(t.step, 20.0);
+        assert_eq!(t.values, vec![0.0, 20.0, 40.0, 60.0, 80.0, 100.0]);
+        assert_eq!(nice_number(25.0, true), 20.0);
+        assert_eq!(nice_number(25.0, false), 50.0);
+        assert_eq!(loose(0.0, 0.7, 5).decimals, 1);
+        // Ticks for legends stay inside the data.
+        let t = inside(11.8, 1718.9, 5);
+        assert!(t.values.iter().all(|v| (11.8..=1718.9).contains(v)));
+    }
+}
