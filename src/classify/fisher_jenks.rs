@@ -173,22 +173,34 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
 }
 
 /// What every layer shares: the prefix sums, whole-number prefix weights and
-/// a table of reciprocals 1/d (class weights are whole numbers d <= n, so a
-/// multiplication replaces the division in the inner loop).
+/// a table of reciprocals. Class weights are whole numbers d = W[i] - W[j]
+/// <= T (the total weight), so a multiplication by `rinv[T - d] = 1 / d`
+/// replaces the division in the inner loop. The table is reversed so that
+/// the reciprocals of one row's candidates j = a..=b are one contiguous,
+/// ascending slice whenever points a..b all have weight 1.
 struct Layer<'a> {
     p: &'a Prefix,
     wint: Vec<u32>,
-    inv: Vec<f64>,
+    total: u32,
+    rinv: Vec<f64>,
 }
 
 impl<'a> Layer<'a> {
     fn new(p: &'a Prefix) -> Layer<'a> {
         let wint: Vec<u32> = p.w.iter().map(|&w| w.round() as u32).collect();
-        let total = *wint.last().unwrap_or(&0) as usize;
-        let inv = (0..=total)
-            .map(|d| if d == 0 { 0.0 } else { 1.0 / d as f64 })
+        let total = *wint.last().unwrap_or(&0);
+        let rinv = (0..=total)
+            .map(|t| {
+                let d = total - t;
+                if d == 0 { 0.0 } else { 1.0 / d as f64 }
+            })
             .collect();
-        Layer { p, wint, inv }
+        Layer {
+            p,
+            wint,
+            total,
+            rinv,
+        }
     }
 }
 
@@ -202,6 +214,78 @@ struct Job<'a> {
 
 /// Row blocks at least this large are split across threads.
 const PARALLEL_ROWS: usize = 1 << 15;
+
+/// Independent lanes of the candidate scan (a multiple of the vector width,
+/// so the compiler keeps them in vector registers).
+const LANES: usize = 8;
+
+/// Candidates per gathered tile of reciprocals (a multiple of `LANES`).
+const TILE: usize = 256;
+
+/// Running leftmost minimum over candidates, one (value, index) per lane.
+/// Within a lane candidates arrive in increasing index, and a strict `<`
+/// keeps the first of equal values; [`LaneMin::finish`] then takes the
+/// smallest value and, among equal values, the smallest index, so the
+/// result is the leftmost argmin of the whole scan.
+struct LaneMin {
+    best: [f64; LANES],
+    at: [f64; LANES],
+}
+
+impl LaneMin {
+    fn new() -> LaneMin {
+        LaneMin {
+            best: [f64::INFINITY; LANES],
+            at: [f64::INFINITY; LANES],
+        }
+    }
+
+    /// Feed candidates j0, j0 + 1, ... with entries q - (s1i - s1)^2 * r.
+    /// All slices have the same length, a multiple of `LANES`. Branch-free
+    /// so that it compiles to vector compares and selects.
+    #[inline(always)]
+    fn feed(&mut self, j0: usize, s1i: f64, q: &[f64], s1: &[f64], r: &[f64]) {
+        // Local copies stay in registers; the select is written on the bits
+        // so that it compiles to and/andnot/or on vector lanes.
+        let (mut best, mut at) = (self.best, self.at);
+        let mut jv = [0.0; LANES];
+        for (l, v) in jv.iter_mut().enumerate() {
+            *v = (j0 + l) as f64;
+        }
+        let chunks = q
+            .chunks_exact(LANES)
+            .zip(s1.chunks_exact(LANES))
+            .zip(r.chunks_exact(LANES));
+        for ((qc, sc), rc) in chunks {
+            let mut v = [0.0; LANES];
+            for l in 0..LANES {
+                let d = s1i - sc[l];
+                v[l] = qc[l] - d * d * rc[l];
+            }
+            for l in 0..LANES {
+                let keep = if v[l] < best[l] { u64::MAX } else { 0 };
+                best[l] = f64::from_bits((v[l].to_bits() & keep) | (best[l].to_bits() & !keep));
+                at[l] = f64::from_bits((jv[l].to_bits() & keep) | (at[l].to_bits() & !keep));
+                jv[l] += LANES as f64;
+            }
+        }
+        self.best = best;
+        self.at = at;
+    }
+
+    /// Smallest value and its smallest index (infinite if none was finite).
+    fn finish(&self) -> (f64, f64) {
+        let (mut v, mut j) = (f64::INFINITY, f64::INFINITY);
+        for l in 0..LANES {
+            let (bv, bj) = (self.best[l], self.at[l]);
+            if bv < v || (bv == v && bj < j) {
+                v = bv;
+                j = bj;
+            }
+        }
+        (v, j)
+    }
+}
 
 impl Job<'_> {
     /// Fill `out[r]`, `arg[r]` for rows i = row0 + r with the minimum over
@@ -231,7 +315,7 @@ impl Job<'_> {
     }
 
     /// Minimum (without the row constant) and leftmost argmin of row i over
-    /// columns a..=b. Four independent lanes keep the pipeline full.
+    /// columns a..=b.
     #[inline]
     fn row_min(&self, i: usize, a: usize, b: usize) -> (f64, usize) {
         let l = self.layer;
@@ -239,42 +323,53 @@ impl Job<'_> {
         let q = &self.q[a..=b];
         let s1 = &l.p.s1[a..=b];
         let w = &l.wint[a..=b];
-        let inv = &l.inv[..=wi as usize];
-        let entry = |qj: f64, s1j: f64, wj: u32| {
-            let d = s1i - s1j;
-            qj - d * d * inv[(wi - wj) as usize]
+        // rinv index of candidate j: W[j] + T - W[i] (< T since W[j] < W[i]).
+        let shift = l.total - wi;
+        let n = q.len();
+        let entry = |j: usize| {
+            let d = s1i - s1[j];
+            q[j] - d * d * l.rinv[(w[j] + shift) as usize]
         };
-        let mut best = [f64::INFINITY; 4];
-        let mut at = [0usize; 4];
-        let full = q.len() / 4 * 4;
-        for c in (0..full).step_by(4) {
-            for lane in 0..4 {
-                let j = c + lane;
-                let v = entry(q[j], s1[j], w[j]);
-                if v < best[lane] {
-                    best[lane] = v;
-                    at[lane] = j;
+        if n < 2 * LANES {
+            // Short rows (most rows of the deeper levels): a plain scan.
+            let (mut best, mut best_j) = (entry(0), 0);
+            for j in 1..n {
+                let v = entry(j);
+                if v < best {
+                    best = v;
+                    best_j = j;
                 }
             }
+            return (best, a + best_j);
         }
-        let (mut b_v, mut b_j) = (f64::INFINITY, usize::MAX);
-        for lane in 0..4 {
-            if best[lane] < b_v || (best[lane] == b_v && at[lane] < b_j) {
-                b_v = best[lane];
-                b_j = at[lane];
+        let full = n - n % LANES;
+        let mut lanes = LaneMin::new();
+        if w[n - 1] - w[0] == (n - 1) as u32 {
+            // Unit weights: the reciprocals are one ascending slice.
+            let r0 = (w[0] + shift) as usize;
+            let r = &l.rinv[r0..r0 + full];
+            lanes.feed(0, s1i, &q[..full], &s1[..full], r);
+        } else {
+            let mut r = [0.0; TILE];
+            for t0 in (0..full).step_by(TILE) {
+                let t1 = (t0 + TILE).min(full);
+                for (rt, &wj) in r.iter_mut().zip(&w[t0..t1]) {
+                    *rt = l.rinv[(wj + shift) as usize];
+                }
+                let len = t1 - t0;
+                lanes.feed(t0, s1i, &q[t0..t1], &s1[t0..t1], &r[..len]);
             }
         }
-        for j in full..q.len() {
-            let v = entry(q[j], s1[j], w[j]);
-            if v < b_v {
-                b_v = v;
-                b_j = j;
+        let (mut best, at) = lanes.finish();
+        let mut best_j = if at.is_finite() { a + at as usize } else { a };
+        for j in full..n {
+            let v = entry(j);
+            if v < best {
+                best = v;
+                best_j = a + j;
             }
         }
-        if b_j == usize::MAX {
-            b_j = 0;
-        }
-        (b_v, a + b_j)
+        (best, best_j)
     }
 }
 
