@@ -146,11 +146,15 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
             layer: &layer,
             q: &q,
         };
-        job.solve(&mut cur[lo..=hi], &mut arg[lo..=hi], lo, c - 1, hi - 1);
+        if c + 1 < k {
+            job.solve(&mut cur[lo..=hi], &mut arg[lo..=hi], (lo, 1), c - 1, hi - 1);
+        } else {
+            last_split_rows(&job, &mut cur, &mut arg, lo, hi);
+        }
         back.push(arg);
         std::mem::swap(&mut prev, &mut cur);
     }
-    // Last layer: one cell, i = m.
+    // Last layer: one cell, i = m (rows left at +inf were pruned).
     let mut best = f64::INFINITY;
     let mut best_j = k - 1;
     for (j, &d) in prev.iter().enumerate().take(m).skip(k - 1) {
@@ -170,6 +174,54 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
         }
     }
     ends
+}
+
+/// The layer before the single last cell: D[k-1][i] is needed only for the
+/// rows i that can start the last class of an optimum. Every
+/// `stride`-th row is solved first; a gap of rows (i0, i1) between
+/// two of them is then solved only if its lower bound
+/// D[k-1][i0] + cost(i1 - 1, m) can beat the best split found so far
+/// (D is non-decreasing in the prefix length and a class's sum of squares
+/// only grows when points are added, so no row of the gap can do better
+/// than the bound). A margin of 1e-9 of the total sum of squares covers
+/// rounding, so a gap is skipped only when it is clearly worse. Rows
+/// skipped stay at +inf.
+fn last_split_rows(job: &Job, cur: &mut [f64], arg: &mut [u32], lo: usize, hi: usize) {
+    let p = job.layer.p;
+    let m = p.w.len() - 1;
+    let stride = (4 * m.isqrt()).max(2);
+    let count = (hi - lo) / stride + 1;
+    let mut sp_out = vec![0.0; count];
+    let mut sp_arg = vec![0u32; count];
+    let cols = (lo - 1, hi - 1);
+    job.solve(&mut sp_out, &mut sp_arg, (lo, stride), cols.0, cols.1);
+    let mut upper = f64::INFINITY;
+    for (t, (&d, &g)) in sp_out.iter().zip(&sp_arg).enumerate() {
+        let i = lo + t * stride;
+        cur[i] = d;
+        arg[i] = g;
+        upper = upper.min(d + p.cost(i, m));
+    }
+    let margin = 1e-9 * p.s2[m].abs();
+    for t in 0..count {
+        let i0 = lo + t * stride;
+        let (i1, jhi) = if t + 1 < count {
+            (i0 + stride, sp_arg[t + 1] as usize)
+        } else {
+            (hi + 1, cols.1)
+        };
+        if i1 <= i0 + 1 || cur[i0] + p.cost(i1 - 1, m) > upper + margin {
+            continue;
+        }
+        let rows = (i0 + 1, 1);
+        job.solve(
+            &mut cur[i0 + 1..i1],
+            &mut arg[i0 + 1..i1],
+            rows,
+            sp_arg[t] as usize,
+            jhi,
+        );
+    }
 }
 
 /// What every layer shares: the prefix sums, whole-number prefix weights and
@@ -212,8 +264,12 @@ struct Job<'a> {
     q: &'a [f64],
 }
 
-/// Row blocks at least this large are split across threads.
-const PARALLEL_ROWS: usize = 1 << 15;
+/// Blocks whose candidate range is at least this wide are split across
+/// threads.
+const PARALLEL_COLUMNS: usize = 1 << 15;
+
+/// Row blocks up to this size are filled row by row instead of divided.
+const SEQ_ROWS: usize = 4;
 
 /// Independent lanes of the candidate scan (a multiple of the vector width,
 /// so the compiler keeps them in vector registers).
@@ -288,29 +344,47 @@ impl LaneMin {
 }
 
 impl Job<'_> {
-    /// Fill `out[r]`, `arg[r]` for rows i = row0 + r with the minimum over
-    /// j in [jlo, min(jhi, i - 1)], by divide and conquer over the monotone
-    /// argmin.
-    fn solve(&self, out: &mut [f64], arg: &mut [u32], row0: usize, jlo: usize, jhi: usize) {
-        if out.is_empty() {
+    /// Fill `out[r]`, `arg[r]` for rows i = row0 + r * stride with the
+    /// minimum over j in [jlo, min(jhi, i - 1)], by divide and conquer over
+    /// the monotone argmin.
+    fn solve(
+        &self,
+        out: &mut [f64],
+        arg: &mut [u32],
+        (row0, stride): (usize, usize),
+        jlo: usize,
+        jhi: usize,
+    ) {
+        if out.len() <= SEQ_ROWS {
+            // A short block: rows in order, each from the previous row's
+            // argmin (monotone) up to the block's bound; no recursion.
+            let mut lo = jlo;
+            for (r, (o, g)) in out.iter_mut().zip(arg.iter_mut()).enumerate() {
+                let i = row0 + r * stride;
+                let (best, best_j) = self.row_min(i, lo, jhi.min(i - 1));
+                *o = best + self.layer.p.s2[i];
+                *g = best_j as u32;
+                lo = best_j;
+            }
             return;
         }
         let mid = out.len() / 2;
-        let i = row0 + mid;
+        let i = row0 + mid * stride;
         let (best, best_j) = self.row_min(i, jlo, jhi.min(i - 1));
         out[mid] = best + self.layer.p.s2[i];
         arg[mid] = best_j as u32;
         let (out_l, out_r) = out.split_at_mut(mid);
         let (arg_l, arg_r) = arg.split_at_mut(mid);
         let (out_r, arg_r) = (&mut out_r[1..], &mut arg_r[1..]);
-        if out_l.len() + out_r.len() >= PARALLEL_ROWS {
+        let right = (i + stride, stride);
+        if jhi - jlo >= PARALLEL_COLUMNS {
             rayon::join(
-                || self.solve(out_l, arg_l, row0, jlo, best_j),
-                || self.solve(out_r, arg_r, i + 1, best_j, jhi),
+                || self.solve(out_l, arg_l, (row0, stride), jlo, best_j),
+                || self.solve(out_r, arg_r, right, best_j, jhi),
             );
         } else {
-            self.solve(out_l, arg_l, row0, jlo, best_j);
-            self.solve(out_r, arg_r, i + 1, best_j, jhi);
+            self.solve(out_l, arg_l, (row0, stride), jlo, best_j);
+            self.solve(out_r, arg_r, right, best_j, jhi);
         }
     }
 
