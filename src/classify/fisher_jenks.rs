@@ -275,43 +275,60 @@ const SEQ_ROWS: usize = 4;
 /// so the compiler keeps them in vector registers).
 const LANES: usize = 8;
 
-/// Candidates per gathered tile of reciprocals (a multiple of `LANES`).
+/// Candidates per block of the scan (a multiple of `LANES`).
+const BLOCK: usize = 32;
+
+/// Candidates per gathered tile of reciprocals (a multiple of `BLOCK`).
 const TILE: usize = 256;
 
-/// Running leftmost minimum over candidates, one (value, index) per lane.
-/// Within a lane candidates arrive in increasing index, and a strict `<`
-/// keeps the first of equal values; [`LaneMin::finish`] then takes the
-/// smallest value and, among equal values, the smallest index, so the
-/// result is the leftmost argmin of the whole scan.
-struct LaneMin {
-    best: [f64; LANES],
-    at: [f64; LANES],
+/// Running minimum over blocks of candidates: the smallest value seen and
+/// the first block that holds it. The hot loop keeps per-lane minima only
+/// (vector minimum, no index bookkeeping); the leftmost argmin is found
+/// afterwards by rescanning that one block for the first candidate equal to
+/// the minimum, with the same arithmetic, so the values compared are
+/// bit-identical.
+struct BlockMin {
+    best: f64,
+    block: usize,
 }
 
-impl LaneMin {
-    fn new() -> LaneMin {
-        LaneMin {
-            best: [f64::INFINITY; LANES],
-            at: [f64::INFINITY; LANES],
-        }
-    }
-
-    /// Feed candidates j0, j0 + 1, ... with entries q - (s1i - s1)^2 * r.
-    /// All slices have the same length, a multiple of `LANES`. Branch-free
-    /// so that it compiles to vector compares and selects.
-    #[inline(always)]
+impl BlockMin {
+    /// Feed the blocks of candidates starting at offset `j0` (a multiple of
+    /// `BLOCK`), entries q - (s1i - s1)^2 * r. All slices have the same
+    /// length, a multiple of `LANES`.
     fn feed(&mut self, j0: usize, s1i: f64, q: &[f64], s1: &[f64], r: &[f64]) {
-        // Local copies stay in registers; the select is written on the bits
-        // so that it compiles to and/andnot/or on vector lanes.
-        let (mut best, mut at) = (self.best, self.at);
-        let mut jv = [0.0; LANES];
-        for (l, v) in jv.iter_mut().enumerate() {
-            *v = (j0 + l) as f64;
-        }
-        let chunks = q
+        block_scan(&mut self.best, &mut self.block, j0 / BLOCK, s1i, q, s1, r);
+    }
+}
+
+/// The hot loop of [`BlockMin::feed`]: per block, per-lane minima on fixed
+/// size arrays (compiled to packed subtract, multiply and minimum), then the
+/// block minimum against the running one.
+#[inline(never)]
+fn block_scan(
+    best: &mut f64,
+    at: &mut usize,
+    b0: usize,
+    s1i: f64,
+    q: &[f64],
+    s1: &[f64],
+    r: &[f64],
+) {
+    // Blocks of up to BLOCK candidates (the last may be shorter, still a
+    // multiple of LANES). The lane loop has a run-time trip count, which
+    // keeps it a loop that the compiler vectorises (fully unrolled
+    // fixed-size blocks are not vectorised in every build configuration).
+    let n = q.len().min(s1.len()).min(r.len()) / LANES * LANES;
+    let blocks = q[..n]
+        .chunks(BLOCK)
+        .zip(s1[..n].chunks(BLOCK))
+        .zip(r[..n].chunks(BLOCK));
+    for (b, ((qb, sb), rb)) in blocks.enumerate() {
+        let mut acc = [f64::INFINITY; LANES];
+        let chunks = qb
             .chunks_exact(LANES)
-            .zip(s1.chunks_exact(LANES))
-            .zip(r.chunks_exact(LANES));
+            .zip(sb.chunks_exact(LANES))
+            .zip(rb.chunks_exact(LANES));
         for ((qc, sc), rc) in chunks {
             let mut v = [0.0; LANES];
             for l in 0..LANES {
@@ -319,27 +336,21 @@ impl LaneMin {
                 v[l] = qc[l] - d * d * rc[l];
             }
             for l in 0..LANES {
-                let keep = if v[l] < best[l] { u64::MAX } else { 0 };
-                best[l] = f64::from_bits((v[l].to_bits() & keep) | (best[l].to_bits() & !keep));
-                at[l] = f64::from_bits((jv[l].to_bits() & keep) | (at[l].to_bits() & !keep));
-                jv[l] += LANES as f64;
+                // Written on the bits so that it stays a lane-wise select.
+                let take = if v[l] < acc[l] { u64::MAX } else { 0 };
+                acc[l] = f64::from_bits((v[l].to_bits() & take) | (acc[l].to_bits() & !take));
             }
         }
-        self.best = best;
-        self.at = at;
-    }
-
-    /// Smallest value and its smallest index (infinite if none was finite).
-    fn finish(&self) -> (f64, f64) {
-        let (mut v, mut j) = (f64::INFINITY, f64::INFINITY);
-        for l in 0..LANES {
-            let (bv, bj) = (self.best[l], self.at[l]);
-            if bv < v || (bv == v && bj < j) {
-                v = bv;
-                j = bj;
+        let mut m = acc[0];
+        for &a in &acc[1..] {
+            if a < m {
+                m = a;
             }
         }
-        (v, j)
+        if m < *best {
+            *best = m;
+            *at = b0 + b;
+        }
     }
 }
 
@@ -404,7 +415,7 @@ impl Job<'_> {
             let d = s1i - s1[j];
             q[j] - d * d * l.rinv[(w[j] + shift) as usize]
         };
-        if n < 2 * LANES {
+        if n < BLOCK {
             // Short rows (most rows of the deeper levels): a plain scan.
             let (mut best, mut best_j) = (entry(0), 0);
             for j in 1..n {
@@ -417,12 +428,15 @@ impl Job<'_> {
             return (best, a + best_j);
         }
         let full = n - n % LANES;
-        let mut lanes = LaneMin::new();
+        let mut blocks = BlockMin {
+            best: f64::INFINITY,
+            block: usize::MAX,
+        };
         if w[n - 1] - w[0] == (n - 1) as u32 {
             // Unit weights: the reciprocals are one ascending slice.
             let r0 = (w[0] + shift) as usize;
             let r = &l.rinv[r0..r0 + full];
-            lanes.feed(0, s1i, &q[..full], &s1[..full], r);
+            blocks.feed(0, s1i, &q[..full], &s1[..full], r);
         } else {
             let mut r = [0.0; TILE];
             for t0 in (0..full).step_by(TILE) {
@@ -431,19 +445,25 @@ impl Job<'_> {
                     *rt = l.rinv[(wj + shift) as usize];
                 }
                 let len = t1 - t0;
-                lanes.feed(t0, s1i, &q[t0..t1], &s1[t0..t1], &r[..len]);
+                blocks.feed(t0, s1i, &q[t0..t1], &s1[t0..t1], &r[..len]);
             }
         }
-        let (mut best, at) = lanes.finish();
-        let mut best_j = if at.is_finite() { a + at as usize } else { a };
+        let mut best = blocks.best;
+        let mut best_j = 0;
+        if blocks.block != usize::MAX {
+            let start = blocks.block * BLOCK;
+            best_j = (start..(start + BLOCK).min(full))
+                .find(|&j| entry(j) == best)
+                .unwrap_or(start);
+        }
         for j in full..n {
             let v = entry(j);
             if v < best {
                 best = v;
-                best_j = a + j;
+                best_j = j;
             }
         }
-        (best, best_j)
+        (best, a + best_j)
     }
 }
 
