@@ -10,41 +10,10 @@
 //! programme is run in full, O(k n^2), over the raw sorted values, with no
 //! shortcut, and our partition's cost must equal its minimum.
 
+mod common;
+
 use hueproof::classify::{Sample, fisher_jenks};
 use proptest::prelude::*;
-
-/// Plain Fisher (1958) programme over raw sorted values with prefix sums
-/// (centred on the mean), every split point tried.
-fn plain_programme(x: &[f64], k: usize) -> f64 {
-    let n = x.len();
-    let mean = x.iter().sum::<f64>() / n as f64;
-    let (mut p1, mut p2) = (vec![0.0; n + 1], vec![0.0; n + 1]);
-    for i in 0..n {
-        let d = x[i] - mean;
-        p1[i + 1] = p1[i] + d;
-        p2[i + 1] = p2[i] + d * d;
-    }
-    let ssd = |a: usize, b: usize| {
-        let d = p1[b] - p1[a];
-        ((p2[b] - p2[a]) - d * d / (b - a) as f64).max(0.0)
-    };
-    let mut best: Vec<f64> = (0..=n)
-        .map(|i| if i == 0 { f64::INFINITY } else { ssd(0, i) })
-        .collect();
-    for c in 2..=k {
-        let mut next = vec![f64::INFINITY; n + 1];
-        for (i, cell) in next.iter_mut().enumerate().skip(c) {
-            for (j, &b) in best.iter().enumerate().take(i).skip(c - 1) {
-                let v = b + ssd(j, i);
-                if v < *cell {
-                    *cell = v;
-                }
-            }
-        }
-        best = next;
-    }
-    best[n]
-}
 
 /// Lognormal-like values (exp of a sum of uniforms) rounded to `step`, so
 /// that a coarse step gives many repeated values and a fine one almost none.
@@ -81,8 +50,8 @@ proptest! {
         prop_assert_eq!(ends.len(), k);
         prop_assert!(ends.windows(2).all(|e| e[0] < e[1]));
         let got = fisher_jenks::partition_cost(&u, &w, &ends);
-        let want = plain_programme(sample.sorted(), k);
-        let sdam = plain_programme(sample.sorted(), 1);
+        let want = common::plain_fisher_programme(sample.sorted(), k);
+        let sdam = common::plain_fisher_programme(sample.sorted(), 1);
         prop_assert!(
             (got - want).abs() <= 1e-9 * sdam.max(1.0),
             "cost {} plain programme {} (n {}, k {})", got, want, n, k

@@ -12,15 +12,45 @@
 //!    (of values centred on their mean, to keep the differences accurate),
 //!    the cost of any class is O(1).
 //! 3. The dynamic programme D[c][i] = min_j D[c-1][j] + cost(j, i) is solved
-//!    layer by layer. The cost is a Monge array (the within-class sum of
-//!    squares satisfies the quadrangle inequality), so the leftmost
-//!    optimal j is non-decreasing in i, and each layer is solved by divide
-//!    and conquer over that monotone argmin in O(m log m). The last layer
-//!    needs one cell only, O(m). Total O(k m log m) time after sorting and
-//!    O(k m) memory for the back-pointers. Class weights are whole numbers,
-//!    so the inner loop multiplies by a tabulated reciprocal instead of
-//!    dividing (the entries then differ from a division by at most an ulp),
-//!    and large layers are split across threads.
+//!    layer by layer. The first layer is closed form, D[1][i] = cost(0, i).
+//!    The cost is a Monge array (the within-class sum of squares satisfies
+//!    the quadrangle inequality), so the leftmost optimal j is
+//!    non-decreasing in i, and layers 2..k-2 are solved by divide and
+//!    conquer over that monotone argmin in O(m log m); blocks of at most
+//!    four rows are filled row by row from the previous row's argmin
+//!    instead of being divided further. Blocks with wide candidate ranges
+//!    are split across threads.
+//! 4. The layer k-1 is needed only where the last class can start. Every
+//!    s-th row (s = 4 sqrt(m)) is solved first; a gap between two such rows
+//!    i0 < i1 is solved only if the exact lower bound
+//!    D[k-1][i0] + cost(i1 - 1, m) (D grows with the prefix, and a class's
+//!    sum of squares grows when points are added) can beat the best split
+//!    found so far, with a margin of 1e-9 of the total sum of squares for
+//!    rounding. Pruning never changes the result; on 1,000,000 lognormal
+//!    values it removes about half of that layer's work. The last layer is
+//!    one cell, O(m). Total O(k m log m) time after sorting and O(k m)
+//!    memory for the back-pointers.
+//! 5. The candidate scan of one row, q[j] - (S1[i] - S1[j])^2 / (W[i] - W[j]),
+//!    is written so that the compiler vectorises it with the baseline
+//!    instruction set (no target-specific flags, no unsafe code): class
+//!    weights are whole numbers, so the division becomes a multiplication
+//!    by a tabulated reciprocal (within an ulp of a division); the table is
+//!    reversed so that a row's reciprocals are one contiguous slice when
+//!    the candidates have weight 1 (otherwise they are gathered tile by
+//!    tile); the loop keeps per-lane minima of blocks of 32 candidates
+//!    only, and the leftmost argmin is recovered by rescanning the one
+//!    block that holds the minimum with the same arithmetic. Rows shorter
+//!    than a block use a plain scan.
+//!
+//! Speed (`cargo bench --bench natural_breaks`, k = 7, 1,000,000 lognormal
+//! values, shared 2-core machine): about 6-8 times the time of sorting the
+//! same values on one thread, 4.5-7 times with the default pool (the spread
+//! is the machine's load). The aim of at most 3 times the sort is not
+//! reached: the remaining cost is the divide and conquer itself, about 87
+//! million candidate evaluations (17 per value per layer), a fifth of them
+//! in rows so long that their data streams from the shared cache rather
+//! than the core's own, and the per-row overhead of the 4 million short
+//! rows of the deeper levels.
 //!
 //! The bounds reported are the largest value of each class, so they are
 //! actual data values. With fewer distinct values than classes, each
