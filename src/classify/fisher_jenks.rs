@@ -44,8 +44,8 @@
 //!
 //! Speed (`cargo bench --bench natural_breaks`, k = 7, 1,000,000 lognormal
 //! values, shared 2-core machine): about 6-8 times the time of sorting the
-//! same values on one thread, 4.5-7 times with the default pool (the spread
-//! is the machine's load). The aim of at most 3 times the sort is not
+//! same values on one thread, 4.5-7.5 times with the default pool (the
+//! spread is the machine's load). The aim of at most 3 times the sort is not
 //! reached: the remaining cost is the divide and conquer itself, about 87
 //! million candidate evaluations (17 per value per layer), a fifth of them
 //! in rows so long that their data streams from the shared cache rather
