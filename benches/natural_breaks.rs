@@ -10,6 +10,9 @@
 //!   natural breaks, with the default thread pool and with one thread;
 //! - `classify`: the full result (bounds, counts, GVF, histogram).
 //!
+//! With `--once` (after `--bench`) it runs natural breaks once and prints
+//! the bounds only, for instruction counts under a profiler.
+//!
 //! The values are generated deterministically: splitmix64 uniforms,
 //! Box-Muller normals, exp(3 + z) (lognormal, mu = 3, sigma = 1).
 
@@ -59,6 +62,21 @@ fn main() {
     }
     let values = lognormal(N, 0x5EED_2026);
     let method = Method::NaturalBreaks { classes: K };
+    // `--once`: one single-threaded natural-breaks run and nothing else, for
+    // instruction counts (`valgrind --tool=callgrind ... --bench --once`).
+    if std::env::args().any(|a| a == "--once") {
+        let one = rayon::ThreadPoolBuilder::new()
+            .num_threads(1)
+            .build()
+            .unwrap();
+        let s = Sample::new(values, 0).unwrap();
+        let t = Instant::now();
+        let b = one.install(|| classify::method_bounds(&s, &method).unwrap());
+        let e = t.elapsed();
+        println!("natural_breaks --once: bounds {:?}", b.upper);
+        println!("  breaks on sorted values, one thread: {:.1} ms", ms(e));
+        return;
+    }
 
     let one = rayon::ThreadPoolBuilder::new()
         .num_threads(1)

@@ -11,6 +11,8 @@
 //!   dynamic programme on random small inputs (property test).
 //! - Jiang (2013): the head/tail worked example (from memory, see below).
 
+mod common;
+
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 
@@ -664,41 +666,13 @@ fn natural_breaks_on_3000_values_equal_plain_programme() {
         })
         .collect();
     let sample = Sample::new(x, 0).unwrap();
-    let v = sample.sorted();
-    let n = v.len();
-    let (mut p1, mut p2) = (vec![0.0; n + 1], vec![0.0; n + 1]);
-    let mean = v.iter().sum::<f64>() / n as f64;
-    for i in 0..n {
-        let d = v[i] - mean;
-        p1[i + 1] = p1[i] + d;
-        p2[i + 1] = p2[i] + d * d;
-    }
-    let ssd = |a: usize, b: usize| {
-        let d = p1[b] - p1[a];
-        (p2[b] - p2[a]) - d * d / (b - a) as f64
-    };
     let k = 7;
-    let mut best = vec![f64::INFINITY; n + 1];
-    for (i, b) in best.iter_mut().enumerate().skip(1) {
-        *b = ssd(0, i);
-    }
-    for c in 2..=k {
-        let mut next = vec![f64::INFINITY; n + 1];
-        for (i, cell) in next.iter_mut().enumerate().skip(c) {
-            for (j, &b) in best.iter().enumerate().take(i).skip(c - 1) {
-                let val = b + ssd(j, i);
-                if val < *cell {
-                    *cell = val;
-                }
-            }
-        }
-        best = next;
-    }
+    let want = common::plain_fisher_programme(sample.sorted(), k);
     let c = classify::classify(&sample, &Method::NaturalBreaks { classes: k }, 5).unwrap();
     assert!(
-        (c.sdcm - best[n]).abs() <= 1e-9 * c.sdam,
+        (c.sdcm - want).abs() <= 1e-9 * c.sdam,
         "sdcm {} plain programme {}",
         c.sdcm,
-        best[n]
+        want
     );
 }

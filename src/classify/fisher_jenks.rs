@@ -12,15 +12,45 @@
 //!    (of values centred on their mean, to keep the differences accurate),
 //!    the cost of any class is O(1).
 //! 3. The dynamic programme D[c][i] = min_j D[c-1][j] + cost(j, i) is solved
-//!    layer by layer. The cost is a Monge array (the within-class sum of
-//!    squares satisfies the quadrangle inequality), so the leftmost
-//!    optimal j is non-decreasing in i, and each layer is solved by divide
-//!    and conquer over that monotone argmin in O(m log m). The last layer
-//!    needs one cell only, O(m). Total O(k m log m) time after sorting and
-//!    O(k m) memory for the back-pointers. Class weights are whole numbers,
-//!    so the inner loop multiplies by a tabulated reciprocal instead of
-//!    dividing (the entries then differ from a division by at most an ulp),
-//!    and large layers are split across threads.
+//!    layer by layer. The first layer is closed form, D[1][i] = cost(0, i).
+//!    The cost is a Monge array (the within-class sum of squares satisfies
+//!    the quadrangle inequality), so the leftmost optimal j is
+//!    non-decreasing in i, and layers 2..k-2 are solved by divide and
+//!    conquer over that monotone argmin in O(m log m); blocks of at most
+//!    four rows are filled row by row from the previous row's argmin
+//!    instead of being divided further. Blocks with wide candidate ranges
+//!    are split across threads.
+//! 4. The layer k-1 is needed only where the last class can start. Every
+//!    s-th row (s = 4 sqrt(m)) is solved first; a gap between two such rows
+//!    i0 < i1 is solved only if the exact lower bound
+//!    D[k-1][i0] + cost(i1 - 1, m) (D grows with the prefix, and a class's
+//!    sum of squares grows when points are added) can beat the best split
+//!    found so far, with a margin of 1e-9 of the total sum of squares for
+//!    rounding. Pruning never changes the result; on 1,000,000 lognormal
+//!    values it removes about half of that layer's work. The last layer is
+//!    one cell, O(m). Total O(k m log m) time after sorting and O(k m)
+//!    memory for the back-pointers.
+//! 5. The candidate scan of one row, q[j] - (S1[i] - S1[j])^2 / (W[i] - W[j]),
+//!    is written so that the compiler vectorises it with the baseline
+//!    instruction set (no target-specific flags, no unsafe code): class
+//!    weights are whole numbers, so the division becomes a multiplication
+//!    by a tabulated reciprocal (within an ulp of a division); the table is
+//!    reversed so that a row's reciprocals are one contiguous slice when
+//!    the candidates have weight 1 (otherwise they are gathered tile by
+//!    tile); the loop keeps per-lane minima of blocks of 32 candidates
+//!    only, and the leftmost argmin is recovered by rescanning the one
+//!    block that holds the minimum with the same arithmetic. Rows shorter
+//!    than a block use a plain scan.
+//!
+//! Speed (`cargo bench --bench natural_breaks`, k = 7, 1,000,000 lognormal
+//! values, shared 2-core machine): about 6-8 times the time of sorting the
+//! same values on one thread, 4.5-7.5 times with the default pool (the
+//! spread is the machine's load). The aim of at most 3 times the sort is not
+//! reached: the remaining cost is the divide and conquer itself, about 87
+//! million candidate evaluations (17 per value per layer), a fifth of them
+//! in rows so long that their data streams from the shared cache rather
+//! than the core's own, and the per-row overhead of the 4 million short
+//! rows of the deeper levels.
 //!
 //! The bounds reported are the largest value of each class, so they are
 //! actual data values. With fewer distinct values than classes, each
@@ -146,11 +176,15 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
             layer: &layer,
             q: &q,
         };
-        job.solve(&mut cur[lo..=hi], &mut arg[lo..=hi], lo, c - 1, hi - 1);
+        if c + 1 < k {
+            job.solve(&mut cur[lo..=hi], &mut arg[lo..=hi], (lo, 1), c - 1, hi - 1);
+        } else {
+            last_split_rows(&job, &mut cur, &mut arg, lo, hi);
+        }
         back.push(arg);
         std::mem::swap(&mut prev, &mut cur);
     }
-    // Last layer: one cell, i = m.
+    // Last layer: one cell, i = m (rows left at +inf were pruned).
     let mut best = f64::INFINITY;
     let mut best_j = k - 1;
     for (j, &d) in prev.iter().enumerate().take(m).skip(k - 1) {
@@ -172,23 +206,83 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
     ends
 }
 
+/// The layer before the single last cell: D[k-1][i] is needed only for the
+/// rows i that can start the last class of an optimum. Every
+/// `stride`-th row is solved first; a gap of rows (i0, i1) between
+/// two of them is then solved only if its lower bound
+/// D[k-1][i0] + cost(i1 - 1, m) can beat the best split found so far
+/// (D is non-decreasing in the prefix length and a class's sum of squares
+/// only grows when points are added, so no row of the gap can do better
+/// than the bound). A margin of 1e-9 of the total sum of squares covers
+/// rounding, so a gap is skipped only when it is clearly worse. Rows
+/// skipped stay at +inf.
+fn last_split_rows(job: &Job, cur: &mut [f64], arg: &mut [u32], lo: usize, hi: usize) {
+    let p = job.layer.p;
+    let m = p.w.len() - 1;
+    let stride = (4 * m.isqrt()).max(2);
+    let count = (hi - lo) / stride + 1;
+    let mut sp_out = vec![0.0; count];
+    let mut sp_arg = vec![0u32; count];
+    let cols = (lo - 1, hi - 1);
+    job.solve(&mut sp_out, &mut sp_arg, (lo, stride), cols.0, cols.1);
+    let mut upper = f64::INFINITY;
+    for (t, (&d, &g)) in sp_out.iter().zip(&sp_arg).enumerate() {
+        let i = lo + t * stride;
+        cur[i] = d;
+        arg[i] = g;
+        upper = upper.min(d + p.cost(i, m));
+    }
+    let margin = 1e-9 * p.s2[m].abs();
+    for t in 0..count {
+        let i0 = lo + t * stride;
+        let (i1, jhi) = if t + 1 < count {
+            (i0 + stride, sp_arg[t + 1] as usize)
+        } else {
+            (hi + 1, cols.1)
+        };
+        if i1 <= i0 + 1 || cur[i0] + p.cost(i1 - 1, m) > upper + margin {
+            continue;
+        }
+        let rows = (i0 + 1, 1);
+        job.solve(
+            &mut cur[i0 + 1..i1],
+            &mut arg[i0 + 1..i1],
+            rows,
+            sp_arg[t] as usize,
+            jhi,
+        );
+    }
+}
+
 /// What every layer shares: the prefix sums, whole-number prefix weights and
-/// a table of reciprocals 1/d (class weights are whole numbers d <= n, so a
-/// multiplication replaces the division in the inner loop).
+/// a table of reciprocals. Class weights are whole numbers d = W[i] - W[j]
+/// <= T (the total weight), so a multiplication by `rinv[T - d] = 1 / d`
+/// replaces the division in the inner loop. The table is reversed so that
+/// the reciprocals of one row's candidates j = a..=b are one contiguous,
+/// ascending slice whenever points a..b all have weight 1.
 struct Layer<'a> {
     p: &'a Prefix,
     wint: Vec<u32>,
-    inv: Vec<f64>,
+    total: u32,
+    rinv: Vec<f64>,
 }
 
 impl<'a> Layer<'a> {
     fn new(p: &'a Prefix) -> Layer<'a> {
         let wint: Vec<u32> = p.w.iter().map(|&w| w.round() as u32).collect();
-        let total = *wint.last().unwrap_or(&0) as usize;
-        let inv = (0..=total)
-            .map(|d| if d == 0 { 0.0 } else { 1.0 / d as f64 })
+        let total = *wint.last().unwrap_or(&0);
+        let rinv = (0..=total)
+            .map(|t| {
+                let d = total - t;
+                if d == 0 { 0.0 } else { 1.0 / d as f64 }
+            })
             .collect();
-        Layer { p, wint, inv }
+        Layer {
+            p,
+            wint,
+            total,
+            rinv,
+        }
     }
 }
 
@@ -200,38 +294,143 @@ struct Job<'a> {
     q: &'a [f64],
 }
 
-/// Row blocks at least this large are split across threads.
-const PARALLEL_ROWS: usize = 1 << 15;
+/// Blocks whose candidate range is at least this wide are split across
+/// threads.
+const PARALLEL_COLUMNS: usize = 1 << 15;
+
+/// Row blocks up to this size are filled row by row instead of divided.
+const SEQ_ROWS: usize = 4;
+
+/// Independent lanes of the candidate scan (a multiple of the vector width,
+/// so the compiler keeps them in vector registers).
+const LANES: usize = 8;
+
+/// Candidates per block of the scan (a multiple of `LANES`).
+const BLOCK: usize = 32;
+
+/// Candidates per gathered tile of reciprocals (a multiple of `BLOCK`).
+const TILE: usize = 256;
+
+/// Running minimum over blocks of candidates: the smallest value seen and
+/// the first block that holds it. The hot loop keeps per-lane minima only
+/// (vector minimum, no index bookkeeping); the leftmost argmin is found
+/// afterwards by rescanning that one block for the first candidate equal to
+/// the minimum, with the same arithmetic, so the values compared are
+/// bit-identical.
+struct BlockMin {
+    best: f64,
+    block: usize,
+}
+
+impl BlockMin {
+    /// Feed the blocks of candidates starting at offset `j0` (a multiple of
+    /// `BLOCK`), entries q - (s1i - s1)^2 * r. All slices have the same
+    /// length, a multiple of `LANES`.
+    fn feed(&mut self, j0: usize, s1i: f64, q: &[f64], s1: &[f64], r: &[f64]) {
+        block_scan(&mut self.best, &mut self.block, j0 / BLOCK, s1i, q, s1, r);
+    }
+}
+
+/// The hot loop of [`BlockMin::feed`]: per block, per-lane minima on fixed
+/// size arrays (compiled to packed subtract, multiply and minimum), then the
+/// block minimum against the running one.
+#[inline(never)]
+fn block_scan(
+    best: &mut f64,
+    at: &mut usize,
+    b0: usize,
+    s1i: f64,
+    q: &[f64],
+    s1: &[f64],
+    r: &[f64],
+) {
+    // Blocks of up to BLOCK candidates (the last may be shorter, still a
+    // multiple of LANES). The lane loop has a run-time trip count, which
+    // keeps it a loop that the compiler vectorises (fully unrolled
+    // fixed-size blocks are not vectorised in every build configuration).
+    let n = q.len().min(s1.len()).min(r.len()) / LANES * LANES;
+    let blocks = q[..n]
+        .chunks(BLOCK)
+        .zip(s1[..n].chunks(BLOCK))
+        .zip(r[..n].chunks(BLOCK));
+    for (b, ((qb, sb), rb)) in blocks.enumerate() {
+        let mut acc = [f64::INFINITY; LANES];
+        let chunks = qb
+            .chunks_exact(LANES)
+            .zip(sb.chunks_exact(LANES))
+            .zip(rb.chunks_exact(LANES));
+        for ((qc, sc), rc) in chunks {
+            let mut v = [0.0; LANES];
+            for l in 0..LANES {
+                let d = s1i - sc[l];
+                v[l] = qc[l] - d * d * rc[l];
+            }
+            for l in 0..LANES {
+                // Written on the bits so that it stays a lane-wise select.
+                let take = if v[l] < acc[l] { u64::MAX } else { 0 };
+                acc[l] = f64::from_bits((v[l].to_bits() & take) | (acc[l].to_bits() & !take));
+            }
+        }
+        let mut m = acc[0];
+        for &a in &acc[1..] {
+            if a < m {
+                m = a;
+            }
+        }
+        if m < *best {
+            *best = m;
+            *at = b0 + b;
+        }
+    }
+}
 
 impl Job<'_> {
-    /// Fill `out[r]`, `arg[r]` for rows i = row0 + r with the minimum over
-    /// j in [jlo, min(jhi, i - 1)], by divide and conquer over the monotone
-    /// argmin.
-    fn solve(&self, out: &mut [f64], arg: &mut [u32], row0: usize, jlo: usize, jhi: usize) {
-        if out.is_empty() {
+    /// Fill `out[r]`, `arg[r]` for rows i = row0 + r * stride with the
+    /// minimum over j in [jlo, min(jhi, i - 1)], by divide and conquer over
+    /// the monotone argmin.
+    fn solve(
+        &self,
+        out: &mut [f64],
+        arg: &mut [u32],
+        (row0, stride): (usize, usize),
+        jlo: usize,
+        jhi: usize,
+    ) {
+        if out.len() <= SEQ_ROWS {
+            // A short block: rows in order, each from the previous row's
+            // argmin (monotone) up to the block's bound; no recursion.
+            let mut lo = jlo;
+            for (r, (o, g)) in out.iter_mut().zip(arg.iter_mut()).enumerate() {
+                let i = row0 + r * stride;
+                let (best, best_j) = self.row_min(i, lo, jhi.min(i - 1));
+                *o = best + self.layer.p.s2[i];
+                *g = best_j as u32;
+                lo = best_j;
+            }
             return;
         }
         let mid = out.len() / 2;
-        let i = row0 + mid;
+        let i = row0 + mid * stride;
         let (best, best_j) = self.row_min(i, jlo, jhi.min(i - 1));
         out[mid] = best + self.layer.p.s2[i];
         arg[mid] = best_j as u32;
         let (out_l, out_r) = out.split_at_mut(mid);
         let (arg_l, arg_r) = arg.split_at_mut(mid);
         let (out_r, arg_r) = (&mut out_r[1..], &mut arg_r[1..]);
-        if out_l.len() + out_r.len() >= PARALLEL_ROWS {
+        let right = (i + stride, stride);
+        if jhi - jlo >= PARALLEL_COLUMNS {
             rayon::join(
-                || self.solve(out_l, arg_l, row0, jlo, best_j),
-                || self.solve(out_r, arg_r, i + 1, best_j, jhi),
+                || self.solve(out_l, arg_l, (row0, stride), jlo, best_j),
+                || self.solve(out_r, arg_r, right, best_j, jhi),
             );
         } else {
-            self.solve(out_l, arg_l, row0, jlo, best_j);
-            self.solve(out_r, arg_r, i + 1, best_j, jhi);
+            self.solve(out_l, arg_l, (row0, stride), jlo, best_j);
+            self.solve(out_r, arg_r, right, best_j, jhi);
         }
     }
 
     /// Minimum (without the row constant) and leftmost argmin of row i over
-    /// columns a..=b. Four independent lanes keep the pipeline full.
+    /// columns a..=b.
     #[inline]
     fn row_min(&self, i: usize, a: usize, b: usize) -> (f64, usize) {
         let l = self.layer;
@@ -239,42 +438,62 @@ impl Job<'_> {
         let q = &self.q[a..=b];
         let s1 = &l.p.s1[a..=b];
         let w = &l.wint[a..=b];
-        let inv = &l.inv[..=wi as usize];
-        let entry = |qj: f64, s1j: f64, wj: u32| {
-            let d = s1i - s1j;
-            qj - d * d * inv[(wi - wj) as usize]
+        // rinv index of candidate j: W[j] + T - W[i] (< T since W[j] < W[i]).
+        let shift = l.total - wi;
+        let n = q.len();
+        let entry = |j: usize| {
+            let d = s1i - s1[j];
+            q[j] - d * d * l.rinv[(w[j] + shift) as usize]
         };
-        let mut best = [f64::INFINITY; 4];
-        let mut at = [0usize; 4];
-        let full = q.len() / 4 * 4;
-        for c in (0..full).step_by(4) {
-            for lane in 0..4 {
-                let j = c + lane;
-                let v = entry(q[j], s1[j], w[j]);
-                if v < best[lane] {
-                    best[lane] = v;
-                    at[lane] = j;
+        if n < BLOCK {
+            // Short rows (most rows of the deeper levels): a plain scan.
+            let (mut best, mut best_j) = (entry(0), 0);
+            for j in 1..n {
+                let v = entry(j);
+                if v < best {
+                    best = v;
+                    best_j = j;
                 }
             }
+            return (best, a + best_j);
         }
-        let (mut b_v, mut b_j) = (f64::INFINITY, usize::MAX);
-        for lane in 0..4 {
-            if best[lane] < b_v || (best[lane] == b_v && at[lane] < b_j) {
-                b_v = best[lane];
-                b_j = at[lane];
+        let full = n - n % LANES;
+        let mut blocks = BlockMin {
+            best: f64::INFINITY,
+            block: usize::MAX,
+        };
+        if w[n - 1] - w[0] == (n - 1) as u32 {
+            // Unit weights: the reciprocals are one ascending slice.
+            let r0 = (w[0] + shift) as usize;
+            let r = &l.rinv[r0..r0 + full];
+            blocks.feed(0, s1i, &q[..full], &s1[..full], r);
+        } else {
+            let mut r = [0.0; TILE];
+            for t0 in (0..full).step_by(TILE) {
+                let t1 = (t0 + TILE).min(full);
+                for (rt, &wj) in r.iter_mut().zip(&w[t0..t1]) {
+                    *rt = l.rinv[(wj + shift) as usize];
+                }
+                let len = t1 - t0;
+                blocks.feed(t0, s1i, &q[t0..t1], &s1[t0..t1], &r[..len]);
             }
         }
-        for j in full..q.len() {
-            let v = entry(q[j], s1[j], w[j]);
-            if v < b_v {
-                b_v = v;
-                b_j = j;
+        let mut best = blocks.best;
+        let mut best_j = 0;
+        if blocks.block != usize::MAX {
+            let start = blocks.block * BLOCK;
+            best_j = (start..(start + BLOCK).min(full))
+                .find(|&j| entry(j) == best)
+                .unwrap_or(start);
+        }
+        for j in full..n {
+            let v = entry(j);
+            if v < best {
+                best = v;
+                best_j = j;
             }
         }
-        if b_j == usize::MAX {
-            b_j = 0;
-        }
-        (b_v, a + b_j)
+        (best, a + best_j)
     }
 }
 

@@ -1,4 +1,6 @@
-//! Helpers shared by the integration tests: reading the reference fixtures.
+//! Helpers shared by the integration tests: reading the reference fixtures,
+//! and the plain Fisher (1958) programme that natural breaks are checked
+//! against.
 
 #![allow(dead_code)]
 
@@ -43,4 +45,41 @@ pub fn f(row: &HashMap<String, String>, key: &str) -> f64 {
 /// Assert `|a - b| <= tol` with a message.
 pub fn close(a: f64, b: f64, tol: f64, what: &str) {
     assert!((a - b).abs() <= tol, "{what}: {a} vs {b} (tolerance {tol})");
+}
+
+/// Minimum SDCM of `k` classes of sorted values `v` by the plain dynamic
+/// programme of Fisher (1958), "On grouping for maximum homogeneity", JASA
+/// 53(284): best[c][i] = min over every j of best[c-1][j] + ssd(j, i), all
+/// O(k n^2) split points tried, with prefix sums of the values centred on
+/// their mean.
+pub fn plain_fisher_programme(v: &[f64], k: usize) -> f64 {
+    let n = v.len();
+    let (mut p1, mut p2) = (vec![0.0; n + 1], vec![0.0; n + 1]);
+    let mean = v.iter().sum::<f64>() / n as f64;
+    for i in 0..n {
+        let d = v[i] - mean;
+        p1[i + 1] = p1[i] + d;
+        p2[i + 1] = p2[i] + d * d;
+    }
+    let ssd = |a: usize, b: usize| {
+        let d = p1[b] - p1[a];
+        (p2[b] - p2[a]) - d * d / (b - a) as f64
+    };
+    let mut best = vec![f64::INFINITY; n + 1];
+    for (i, b) in best.iter_mut().enumerate().skip(1) {
+        *b = ssd(0, i);
+    }
+    for c in 2..=k {
+        let mut next = vec![f64::INFINITY; n + 1];
+        for (i, cell) in next.iter_mut().enumerate().skip(c) {
+            for (j, &b) in best.iter().enumerate().take(i).skip(c - 1) {
+                let val = b + ssd(j, i);
+                if val < *cell {
+                    *cell = val;
+                }
+            }
+        }
+        best = next;
+    }
+    best[n]
 }

@@ -1,0 +1,60 @@
+//! Exactness of the fast natural-breaks programme on inputs large enough to
+//! use every path of it: the vector-lane candidate scan (rows of 16 or more
+//! candidates), the gathered reciprocals (candidate ranges containing
+//! repeated values), the row-by-row short blocks, and the pruned sparse pass
+//! of the layer before the last cell (several sparse rows and gaps).
+//!
+//! Reference: Fisher (1958), "On grouping for maximum homogeneity", JASA
+//! 53(284): the optimal partition is the minimum of the dynamic programme
+//! D[c][i] = min_j D[c-1][j] + ssd(j, i) over all split points. Here that
+//! programme is run in full, O(k n^2), over the raw sorted values, with no
+//! shortcut, and our partition's cost must equal its minimum.
+
+mod common;
+
+use hueproof::classify::{Sample, fisher_jenks};
+use proptest::prelude::*;
+
+/// Lognormal-like values (exp of a sum of uniforms) rounded to `step`, so
+/// that a coarse step gives many repeated values and a fine one almost none.
+fn values(seed: u64, n: usize, step: f64) -> Vec<f64> {
+    let mut s = seed;
+    let mut uniform = || {
+        s = s
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        (s >> 11) as f64 / (1u64 << 53) as f64
+    };
+    (0..n)
+        .map(|_| {
+            let z = (0..4).map(|_| uniform()).sum::<f64>() - 2.0;
+            ((2.0 + 1.5 * z).exp() / step).round() * step
+        })
+        .collect()
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(24))]
+
+    #[test]
+    fn fast_programme_equals_plain_programme(
+        seed in 0u64..10_000,
+        n in 200usize..900,
+        step in prop_oneof![Just(1e-6f64), Just(0.05), Just(1.0)],
+        k in 2usize..9,
+    ) {
+        let sample = Sample::new(values(seed, n, step), 0).unwrap();
+        let (u, w) = fisher_jenks::unique_weighted(sample.sorted());
+        let k = k.min(u.len());
+        let ends = fisher_jenks::optimal_ends(&u, &w, k);
+        prop_assert_eq!(ends.len(), k);
+        prop_assert!(ends.windows(2).all(|e| e[0] < e[1]));
+        let got = fisher_jenks::partition_cost(&u, &w, &ends);
+        let want = common::plain_fisher_programme(sample.sorted(), k);
+        let sdam = common::plain_fisher_programme(sample.sorted(), 1);
+        prop_assert!(
+            (got - want).abs() <= 1e-9 * sdam.max(1.0),
+            "cost {} plain programme {} (n {}, k {})", got, want, n, k
+        );
+    }
+}
