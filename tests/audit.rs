@@ -354,6 +354,50 @@ fn small_dots_blend_where_large_areas_of_the_same_colours_do_not() {
     );
 }
 
+#[test]
+fn a_diverging_scheme_with_a_tinted_midpoint_is_flagged() {
+    // Blue and orange arms of matching lightness (L* about 46 and 70 on
+    // each side) around a saturated yellow middle (CIELAB chroma about 40).
+    let fills = ["#3b6fb0", "#8fb0d8", "#f0d890", "#e0a47a", "#a8602c"];
+    let body: String = fills
+        .iter()
+        .enumerate()
+        .map(|(i, f)| {
+            marks(
+                &format!("c{}", i + 1),
+                f,
+                None,
+                &[rect(10.0 + 40.0 * i as f64, 10.0, 40.0, 50.0)],
+            )
+        })
+        .collect();
+    let svg = page(220.0, 70.0, &body);
+    let r = audit(&svg, 48.0, Some(SchemeKind::Diverging));
+    let f = flagged(&r);
+    // The midpoint finding in normal vision, on the middle class.
+    assert!(
+        f.contains(&("HP106".into(), "normal".into(), vec!["c3".into()])),
+        "{f:?}"
+    );
+    // Nothing else, except the grayscale warnings that the two arms share
+    // their lightness (by design of a diverging scheme).
+    for x in &r.findings {
+        let grayscale_arms = x.code == "HP101"
+            && x.view == "achromatopsia"
+            && x.severity == hueproof::findings::Severity::Warning;
+        assert!(x.code == "HP106" || grayscale_arms, "{x:?}");
+    }
+    // The same scheme with a neutral middle has no midpoint finding.
+    let neutral = svg.replace("#f0d890", "#e4e4e4");
+    let r = audit(&neutral, 48.0, Some(SchemeKind::Diverging));
+    assert!(
+        r.findings.iter().all(|x| x.code != "HP106"),
+        "{:?}",
+        flagged(&r)
+    );
+    assert!(r.passed);
+}
+
 fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, Error> {
     let mut argv = vec!["hueproof"];
     argv.extend_from_slice(args);

@@ -510,23 +510,38 @@ pub fn judge(m: &Measured, opt: &Options) -> Vec<AuditFinding> {
                     None,
                 );
             }
-            for k in 1..=mid.min(classes.len() - 1 - mid) {
-                let (a, b) = (classes[mid - k], classes[mid + k]);
-                let d = (lab(a).l - lab(b).l).abs();
-                if d > t.arm_lightness {
-                    out.push(
-                        Kind::Midpoint,
-                        Severity::Warning,
-                        &[a, b],
-                        "arm_lightness_difference",
-                        d,
-                        t.arm_lightness,
-                        format!(
-                            "the arms are unbalanced under {}: {} and {}, equally far from the midpoint, differ by {:.0} L*",
-                            v.name, m.ids[a], m.ids[b], d
-                        ),
-                        None,
-                    );
+        }
+        // The arms reach similar lightness at equal distance from the
+        // midpoint (a middle class, or the break between two classes).
+        if let Some(sp) = split {
+            let n = classes.len();
+            let (below, above) = if sp.middle_class {
+                (sp.upper_start.checked_sub(1), sp.upper_start + 1)
+            } else {
+                (sp.upper_start.checked_sub(1), sp.upper_start)
+            };
+            if let Some(below) = below {
+                for k in 0..=below.min(n.saturating_sub(above + 1)) {
+                    if above + k >= n {
+                        break;
+                    }
+                    let (a, b) = (classes[below - k], classes[above + k]);
+                    let d = (lab(a).l - lab(b).l).abs();
+                    if d > t.arm_lightness {
+                        out.push(
+                            Kind::Midpoint,
+                            Severity::Warning,
+                            &[a, b],
+                            "arm_lightness_difference",
+                            d,
+                            t.arm_lightness,
+                            format!(
+                                "the arms are unbalanced under {}: {} and {}, equally far from the midpoint, differ by {:.0} L*",
+                                v.name, m.ids[a], m.ids[b], d
+                            ),
+                            None,
+                        );
+                    }
                 }
             }
         }
