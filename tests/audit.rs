@@ -48,6 +48,19 @@ fn rect(x: f64, y: f64, w: f64, h: f64) -> String {
     format!(r#"<rect x="{x}" y="{y}" width="{w}" height="{h}"/>"#)
 }
 
+/// Classes c1, c2, ... of `fills`, one rectangle each, in a row `pitch`
+/// apart.
+fn row(fills: &[&str], pitch: f64, w: f64, h: f64) -> String {
+    fills
+        .iter()
+        .enumerate()
+        .map(|(i, f)| {
+            let x = 10.0 + pitch * i as f64;
+            marks(&format!("c{}", i + 1), f, None, &[rect(x, 10.0, w, h)])
+        })
+        .collect()
+}
+
 fn circle(x: f64, y: f64, r: f64) -> String {
     format!(r#"<circle cx="{x}" cy="{y}" r="{r}"/>"#)
 }
@@ -238,18 +251,7 @@ fn a_pale_class_without_borders_fades_and_a_dark_hairline_saves_it() {
 fn an_ordered_scheme_whose_lightness_reverses_is_flagged_in_achromatopsia() {
     // L* of about 82, 48 and 65: the middle class is darker than the last.
     let fills = ["#c9cad8", "#6f7488", "#9c9fb0"];
-    let body: String = fills
-        .iter()
-        .enumerate()
-        .map(|(i, f)| {
-            marks(
-                &format!("c{}", i + 1),
-                f,
-                None,
-                &[rect(10.0 + 50.0 * i as f64, 10.0, 50.0, 50.0)],
-            )
-        })
-        .collect();
+    let body = row(&fills, 50.0, 50.0, 50.0);
     let r = audit(
         &page(170.0, 70.0, &body),
         48.0,
@@ -289,18 +291,7 @@ fn an_ordered_scheme_whose_lightness_reverses_is_flagged_in_achromatopsia() {
 fn one_much_darker_class_in_a_nominal_scheme_glares() {
     // L* about 55, 65, 75 and one at about 20; apart, not touching.
     let fills = ["#b07a5f", "#7fa67c", "#a9b8de", "#2b2f45"];
-    let body: String = fills
-        .iter()
-        .enumerate()
-        .map(|(i, f)| {
-            marks(
-                &format!("c{}", i + 1),
-                f,
-                None,
-                &[rect(10.0 + 50.0 * i as f64, 10.0, 40.0, 40.0)],
-            )
-        })
-        .collect();
+    let body = row(&fills, 50.0, 40.0, 40.0);
     let r = audit(
         &page(220.0, 60.0, &body),
         48.0,
@@ -359,18 +350,7 @@ fn a_diverging_scheme_with_a_tinted_midpoint_is_flagged() {
     // Blue and orange arms of matching lightness (L* about 46 and 70 on
     // each side) around a saturated yellow middle (CIELAB chroma about 40).
     let fills = ["#3b6fb0", "#8fb0d8", "#f0d890", "#e0a47a", "#a8602c"];
-    let body: String = fills
-        .iter()
-        .enumerate()
-        .map(|(i, f)| {
-            marks(
-                &format!("c{}", i + 1),
-                f,
-                None,
-                &[rect(10.0 + 40.0 * i as f64, 10.0, 40.0, 50.0)],
-            )
-        })
-        .collect();
+    let body = row(&fills, 40.0, 40.0, 50.0);
     let svg = page(220.0, 70.0, &body);
     let r = audit(&svg, 48.0, Some(SchemeKind::Diverging));
     let f = flagged(&r);
