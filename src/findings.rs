@@ -13,6 +13,7 @@
 //! | HP105 | steps | the steps between neighbouring classes of an ordered scheme are uneven |
 //! | HP106 | midpoint | a diverging scheme's midpoint is not neutral and lightest, or its arms are unbalanced |
 //! | HP107 | crowd | more classes than can stay distinguishable; use fewer classes, labels or small multiples |
+//! | HP108 | text | text does not reach the contrast WCAG 2.x SC 1.4.3 asks against what is behind it |
 
 use serde::Serialize;
 
@@ -47,6 +48,8 @@ pub enum Kind {
     Midpoint,
     /// HP107.
     Crowd,
+    /// HP108.
+    Text,
 }
 
 impl Kind {
@@ -60,6 +63,7 @@ impl Kind {
             Kind::Steps => "HP105",
             Kind::Midpoint => "HP106",
             Kind::Crowd => "HP107",
+            Kind::Text => "HP108",
         }
     }
 
@@ -73,6 +77,7 @@ impl Kind {
             Kind::Steps => "steps",
             Kind::Midpoint => "midpoint",
             Kind::Crowd => "crowd",
+            Kind::Text => "text",
         }
     }
 }

@@ -378,6 +378,40 @@ fn a_diverging_scheme_with_a_tinted_midpoint_is_flagged() {
     assert!(r.passed);
 }
 
+#[test]
+fn low_contrast_text_is_flagged_by_wcag_1_4_3() {
+    // WCAG 2.x SC 1.4.3 test vectors (methods.md 3.1): #777777 on white is
+    // 4.48:1 (fails 4.5:1), #767676 is 4.54:1 (passes); large text (18 pt)
+    // needs 3:1 only, which #959595 (2.995:1) misses.
+    let shapes = [rect(10.0, 40.0, 30.0, 20.0)];
+    let body = |color: &str, size: f64| {
+        marks("c1", "#3a6ea5", None, &shapes)
+            + &format!(
+                r#"<text x="10" y="30" font-size="{size}" fill="{color}">Rainfall by district</text>"#
+            )
+    };
+    let fails = audit(&page(200.0, 70.0, &body("#777777", 9.0)), 150.0, None);
+    let f = flagged(&fails);
+    assert_eq!(f.len(), 5, "{f:?}");
+    for (x, v) in f.iter().zip(VIEWS) {
+        assert_eq!((x.0.as_str(), x.1.as_str()), ("HP108", v));
+    }
+    assert_eq!(fails.findings[0].threshold, 4.5);
+    assert!((fails.findings[0].measured - 4.48).abs() < 0.01);
+    let passes = audit(&page(200.0, 70.0, &body("#767676", 9.0)), 150.0, None);
+    assert!(passes.findings.is_empty(), "{:?}", flagged(&passes));
+    let large = audit(&page(200.0, 70.0, &body("#959595", 18.0)), 150.0, None);
+    assert!(
+        large
+            .findings
+            .iter()
+            .all(|x| x.code == "HP108" && x.threshold == 3.0)
+    );
+    assert_eq!(large.findings.len(), 5);
+    let large_ok = audit(&page(200.0, 70.0, &body("#949494", 18.0)), 150.0, None);
+    assert!(large_ok.findings.is_empty(), "{:?}", flagged(&large_ok));
+}
+
 fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, Error> {
     let mut argv = vec!["hueproof"];
     argv.extend_from_slice(args);

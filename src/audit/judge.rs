@@ -1,5 +1,5 @@
 //! Judging the measurements into findings: blend (HP101), fade (HP102),
-//! glare (HP103), order (HP104) and midpoint (HP106), each in the view it
+//! glare (HP103), order (HP104), midpoint (HP106) and text (HP108), each in the view it
 //! occurs in, with the measured value, the threshold and, for blend, fade
 //! and order, the smallest change that fixes it.
 //!
@@ -27,6 +27,11 @@ pub struct Thresholds {
     /// Non-text contrast a mark's boundary needs against the background
     /// (3:1, WCAG 2.x SC 1.4.11).
     pub boundary_contrast: f64,
+    /// Text contrast (4.5:1, WCAG 2.x SC 1.4.3).
+    pub text_contrast: f64,
+    /// Large text contrast (3:1, WCAG 2.x SC 1.4.3; large: at least 18 pt,
+    /// or 14 pt bold).
+    pub large_text_contrast: f64,
     /// Glare: how far (CIELAB L*) a class's lightness difference to the
     /// background may exceed the others' median (hueproof's own choice).
     pub glare_lightness: f64,
@@ -47,6 +52,8 @@ impl Default for Thresholds {
             p_touching: 0.8,
             p_apart: 0.5,
             boundary_contrast: 3.0,
+            text_contrast: 4.5,
+            large_text_contrast: 3.0,
             glare_lightness: 20.0,
             midpoint_chroma: 10.0,
             midpoint_lean: 2.0,
@@ -543,6 +550,39 @@ pub fn judge(m: &Measured, opt: &Options) -> Vec<AuditFinding> {
                         );
                     }
                 }
+            }
+        }
+        // Text: WCAG 2.x SC 1.4.3, 4.5:1, or 3:1 for large text (at least
+        // 18 pt, or 14 pt bold).
+        for (j, tx) in m.texts.iter().enumerate() {
+            let Some(c) = m.text_contrast.get(vi).and_then(|v| v[j]) else {
+                continue;
+            };
+            let large = tx.size_pt >= 18.0 || (tx.bold && tx.size_pt >= 14.0);
+            let need = if large {
+                t.large_text_contrast
+            } else {
+                t.text_contrast
+            };
+            if c < need {
+                out.push(
+                    Kind::Text,
+                    Severity::Error,
+                    &[],
+                    "contrast_ratio",
+                    c,
+                    need,
+                    format!(
+                        "text \"{}\" ({} pt{}) reaches {:.2}:1 against what is behind it under {}; WCAG 2.x SC 1.4.3 asks {}:1",
+                        tx.content.trim(),
+                        r2(tx.size_pt),
+                        if tx.bold { " bold" } else { "" },
+                        c,
+                        v.name,
+                        need
+                    ),
+                    None,
+                );
             }
         }
         out.list.sort_by(|x, y| x.code.cmp(y.code));

@@ -22,6 +22,24 @@ pub const TEXT: u16 = 2;
 /// Everything else drawn: axes, gridlines, context layers, histograms.
 pub const OTHER: u16 = 3;
 
+/// Text element `j` (in document order) has label `TEXT_BASE + j`.
+pub const TEXT_BASE: u16 = 0x8000;
+/// The most text elements labelled one by one; later ones share the last.
+pub const MAX_TEXTS: usize = 0x7fff;
+
+/// A text element as written: its fill, size in points and weight.
+#[derive(Debug, Clone, PartialEq)]
+pub struct TextInfo {
+    /// The specified fill, when a flat colour.
+    pub fill: Option<Srgb>,
+    /// Font size in points.
+    pub size_pt: f64,
+    /// Bold (font-weight bold or at least 700).
+    pub bold: bool,
+    /// The text content.
+    pub content: String,
+}
+
 /// The label of class `k`'s marks.
 pub fn fill_label(k: usize) -> u16 {
     4 + 2 * k as u16
@@ -52,6 +70,7 @@ pub enum Part {
 /// The part a label stands for.
 pub fn part(label: u16) -> Part {
     match label {
+        l if l >= TEXT_BASE => Part::Text,
         BACKGROUND => Part::Background,
         BORDER => Part::Border,
         TEXT => Part::Text,
@@ -84,6 +103,8 @@ pub struct LabelSvg {
     pub svg: String,
     /// The classes.
     pub classes: SceneClasses,
+    /// The text elements, in document order.
+    pub texts: Vec<TextInfo>,
 }
 
 fn label_hex(l: u16) -> String {
@@ -131,6 +152,8 @@ struct Ctx {
     fill: String,
     stroke: String,
     stroke_width: String,
+    font_size: String,
+    font_weight: String,
 }
 
 const SHAPES: [&str; 8] = [
@@ -157,6 +180,8 @@ struct Writer<'a> {
     ids: &'a [String],
     fills: Vec<Option<Srgb>>,
     background: Option<Srgb>,
+    texts: Vec<TextInfo>,
+    unit_pt: f64,
     out: String,
 }
 
@@ -238,6 +263,12 @@ impl Writer<'_> {
         if let Some(w) = n.attribute("stroke-width") {
             c.stroke_width = w.to_string();
         }
+        if let Some(f) = n.attribute("font-size") {
+            c.font_size = f.to_string();
+        }
+        if let Some(f) = n.attribute("font-weight") {
+            c.font_weight = f.to_string();
+        }
         let role = n.attribute("data-role");
         let class = n
             .attribute("data-class")
@@ -261,7 +292,18 @@ impl Writer<'_> {
                     .map(|w| w > 0.0)
                     .unwrap_or(true);
             let (fl, sl) = if tag == "text" {
-                (TEXT, TEXT)
+                let j = self.texts.len().min(MAX_TEXTS - 1);
+                let size = length_pt(&c.font_size, self.unit_pt).unwrap_or(12.0);
+                let w = c.font_weight.trim();
+                self.texts.push(TextInfo {
+                    fill: crate::color::parse_color(&c.fill).ok().map(|p| p.rgba.rgb),
+                    size_pt: size,
+                    bold: w == "bold"
+                        || w == "bolder"
+                        || w.parse::<f64>().is_ok_and(|v| v >= 700.0),
+                    content: n.descendants().filter_map(|d| d.text()).collect(),
+                });
+                (TEXT_BASE + j as u16, TEXT_BASE + j as u16)
             } else if role == Some("background") {
                 if self.background.is_none() {
                     self.background = crate::color::parse_color(&c.fill).ok().map(|p| p.rgba.rgb);
@@ -323,6 +365,42 @@ impl Writer<'_> {
     }
 }
 
+/// A length in points: CSS units, or user units times `unit_pt`.
+fn length_pt(v: &str, unit_pt: f64) -> Option<f64> {
+    let v = v.trim();
+    let (num, factor) = if let Some(n) = v.strip_suffix("pt") {
+        (n, 1.0)
+    } else if let Some(n) = v.strip_suffix("px") {
+        (n, 0.75)
+    } else if let Some(n) = v.strip_suffix("mm") {
+        (n, 72.0 / 25.4)
+    } else if let Some(n) = v.strip_suffix("cm") {
+        (n, 720.0 / 25.4)
+    } else if let Some(n) = v.strip_suffix("in") {
+        (n, 72.0)
+    } else {
+        (v, unit_pt)
+    };
+    num.trim().parse::<f64>().ok().map(|x| x * factor)
+}
+
+/// Points per user unit of the root: its width over its viewBox width
+/// (CSS px, 0.75 pt, when it has no viewBox).
+fn unit_pt(root: roxmltree::Node) -> f64 {
+    let width = root.attribute("width").and_then(|w| length_pt(w, 0.75));
+    let vb = root.attribute("viewBox").and_then(|v| {
+        v.split([' ', ','])
+            .filter(|s| !s.is_empty())
+            .nth(2)?
+            .parse::<f64>()
+            .ok()
+    });
+    match (width, vb) {
+        (Some(w), Some(b)) if b > 0.0 => w / b,
+        _ => 0.75,
+    }
+}
+
 /// Rewrite `svg` into its label SVG. Errors when the document is not XML
 /// or carries no `data-class` marks (class detection for SVG from other
 /// tools is not available yet).
@@ -357,6 +435,8 @@ pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
         ids: &ids,
         fills: vec![None; ids.len()],
         background: None,
+        texts: Vec::new(),
+        unit_pt: unit_pt(root),
         out: String::with_capacity(svg.len()),
     };
     let ctx = Ctx {
@@ -365,6 +445,8 @@ pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
         fill: "black".into(),
         stroke: "none".into(),
         stroke_width: "1".into(),
+        font_size: "16".into(),
+        font_weight: "normal".into(),
     };
     // The root: its attributes, the namespaces, and aliasing turned off.
     let mut c = ctx.clone();
@@ -396,6 +478,7 @@ pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
     Ok(LabelSvg {
         svg: w.out,
         classes,
+        texts: w.texts,
     })
 }
 
@@ -421,7 +504,12 @@ pub fn render_labels(name: &Path, label: &LabelSvg, dpi: f64) -> Result<Labels> 
         .chunks_exact(4)
         .map(|p| {
             let l = p[0] as u16 | (p[1] as u16) << 8;
-            if p[2] != 0 || l > top { OTHER } else { l }
+            let text = l >= TEXT_BASE && ((l - TEXT_BASE) as usize) < label.texts.len();
+            if p[2] != 0 || (l > top && !text) {
+                OTHER
+            } else {
+                l
+            }
         })
         .collect();
     Ok(Labels {

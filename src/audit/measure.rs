@@ -267,3 +267,38 @@ pub fn part_color(rgba: &[u8], l: &Labels, core: &[bool], label: u16) -> Option<
     median_rgb(rgba, |i| l.ids[i] == label && core[i])
         .or_else(|| median_rgb(rgba, |i| l.ids[i] == label))
 }
+
+/// The pixel bounding box `[x0, y0, x1, y1]` (inclusive) of each of `n`
+/// text elements' labels; None for text that drew nothing.
+pub fn text_boxes(l: &Labels, n: usize) -> Vec<Option<[usize; 4]>> {
+    let w = l.width as usize;
+    let mut boxes: Vec<Option<[usize; 4]>> = vec![None; n];
+    for (i, &id) in l.ids.iter().enumerate() {
+        if id < labels::TEXT_BASE {
+            continue;
+        }
+        let j = (id - labels::TEXT_BASE) as usize;
+        if j >= n {
+            continue;
+        }
+        let (x, y) = (i % w, i / w);
+        let b = boxes[j].get_or_insert([x, y, x, y]);
+        b[0] = b[0].min(x);
+        b[1] = b[1].min(y);
+        b[2] = b[2].max(x);
+        b[3] = b[3].max(y);
+    }
+    boxes
+}
+
+/// The median colour of the pixels in box `b` grown by `margin` that are
+/// not text: what the text stands on.
+pub fn around_text(rgba: &[u8], l: &Labels, b: [usize; 4], margin: usize) -> Option<[u8; 3]> {
+    let (w, h) = (l.width as usize, l.height as usize);
+    let (x0, y0) = (b[0].saturating_sub(margin), b[1].saturating_sub(margin));
+    let (x1, y1) = ((b[2] + margin).min(w - 1), (b[3] + margin).min(h - 1));
+    median_rgb(rgba, |i| {
+        let (x, y) = (i % w, i / w);
+        x >= x0 && x <= x1 && y >= y0 && y <= y1 && l.ids[i] < labels::TEXT_BASE
+    })
+}

@@ -183,6 +183,11 @@ pub struct Measured {
     /// Per view, per class: the contrast ratio of each crossing into the
     /// background (the highest along the crossing), median over crossings.
     pub boundary: Vec<Vec<Option<f64>>>,
+    /// The text elements as written.
+    pub texts: Vec<labels::TextInfo>,
+    /// Per view, per text element: the WCAG contrast of its specified fill
+    /// (simulated) against the median of the pixels around it.
+    pub text_contrast: Vec<Vec<Option<f64>>>,
 }
 
 fn rgb8(c: [u8; 3]) -> Srgb {
@@ -212,7 +217,10 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
         swatches: Vec::new(),
         background: Vec::new(),
         boundary: Vec::new(),
+        texts: label.texts.clone(),
+        text_contrast: Vec::new(),
     };
+    let boxes = measure::text_boxes(&lab, label.texts.len());
     for v in &opt.views {
         let sim = Simulation::new(v.view, opt.model);
         let mut buf = img.rgba.clone();
@@ -251,6 +259,23 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
                         })
                         .collect();
                     Some(measure::median(per))
+                })
+                .collect(),
+        );
+        m.text_contrast.push(
+            boxes
+                .iter()
+                .zip(&m.texts)
+                .map(|(bx, t)| {
+                    let b = (*bx)?;
+                    let around = measure::around_text(&buf, &lab, b, 2)?;
+                    let fg = match t.fill {
+                        Some(f) => sim.apply(f),
+                        None => rgb8(measure::median_rgb(&buf, |i| {
+                            lab.ids[i] >= labels::TEXT_BASE
+                        })?),
+                    };
+                    Some(crate::color::wcag::contrast_ratio(fg, rgb8(around)))
                 })
                 .collect(),
         );
