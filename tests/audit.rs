@@ -412,6 +412,36 @@ fn low_contrast_text_is_flagged_by_wcag_1_4_3() {
     assert!(large_ok.findings.is_empty(), "{:?}", flagged(&large_ok));
 }
 
+#[test]
+fn a_legend_swatch_that_does_not_match_its_marks_is_flagged() {
+    let legend = |swatch: &str| {
+        format!(
+            r#"<g data-role="legend"><g data-role="legend-entry" data-class="c1"><rect x="120" y="20" width="20" height="15" fill="{swatch}"/></g></g>"#
+        )
+    };
+    let marks_c1 = marks("c1", "#3a6ea5", None, &[rect(10.0, 10.0, 60.0, 50.0)]);
+    let same = audit(
+        &page(160.0, 70.0, &(marks_c1.clone() + &legend("#3a6ea5"))),
+        96.0,
+        None,
+    );
+    assert!(same.findings.is_empty(), "{:?}", flagged(&same));
+    // A swatch of clearly another blue (CIEDE2000 about 15).
+    let off = audit(
+        &page(160.0, 70.0, &(marks_c1 + &legend("#6a9ad5"))),
+        96.0,
+        None,
+    );
+    let f = flagged(&off);
+    assert_eq!(f.len(), 5, "{f:?}");
+    for (x, v) in f.iter().zip(VIEWS) {
+        assert_eq!(
+            (x.0.as_str(), x.1.as_str(), x.2.as_slice()),
+            ("HP109", v, &["c1".to_string()][..])
+        );
+    }
+}
+
 fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, Error> {
     let mut argv = vec!["hueproof"];
     argv.extend_from_slice(args);

@@ -1,5 +1,5 @@
 //! Judging the measurements into findings: blend (HP101), fade (HP102),
-//! glare (HP103), order (HP104), midpoint (HP106) and text (HP108), each in the view it
+//! glare (HP103), order (HP104), midpoint (HP106), text (HP108) and legend (HP109), each in the view it
 //! occurs in, with the measured value, the threshold and, for blend, fade
 //! and order, the smallest change that fixes it.
 //!
@@ -550,6 +550,30 @@ pub fn judge(m: &Measured, opt: &Options) -> Vec<AuditFinding> {
                         );
                     }
                 }
+            }
+        }
+        // Legend: each swatch looks like its class's marks (within the
+        // difference half the observers notice at the marks' size).
+        for &k in &classes {
+            let (Some(sw), Some(c)) = (m.swatches[vi][k], colors[k]) else {
+                continue;
+            };
+            let de = ciede2000(sw.to_lab(), c.to_lab());
+            let thr = blend_threshold(t.p_apart, m.angle_deg[k]);
+            if de > thr {
+                out.push(
+                    Kind::Legend,
+                    Severity::Error,
+                    &[k],
+                    "delta_e2000",
+                    de,
+                    thr,
+                    format!(
+                        "the legend swatch of {} is CIEDE2000 {:.1} from its marks as rendered under {} (noticeable above {:.1}); readers cannot match them",
+                        m.ids[k], de, v.name, thr
+                    ),
+                    None,
+                );
             }
         }
         // Text: WCAG 2.x SC 1.4.3, 4.5:1, or 3:1 for large text (at least
