@@ -442,6 +442,37 @@ fn a_legend_swatch_that_does_not_match_its_marks_is_flagged() {
     }
 }
 
+#[test]
+fn the_label_raster_is_free_of_anti_aliasing() {
+    // Circles, a hairline border and text: with crisp edges every pixel
+    // decodes to a label that was drawn, none to a blend of two.
+    use hueproof::audit::labels;
+    let body = marks(
+        "c1",
+        "#3a6ea5",
+        Some(("#ffffff", 0.3)),
+        &[circle(20.0, 20.0, 7.3), circle(37.0, 21.0, 6.1)],
+    ) + &marks("c2", "#d9a05b", None, &[circle(60.0, 25.0, 9.7)])
+        + r#"<text x="5" y="55" font-size="9">Aq 42</text>"#;
+    let svg = page(90.0, 60.0, &body);
+    let l = labels::label_svg(Path::new("t.svg"), &svg).unwrap();
+    assert_eq!(l.classes.ids, ["c1", "c2"]);
+    let r = labels::render_labels(Path::new("t.svg"), &l, 200.0).unwrap();
+    let allowed = [
+        labels::BACKGROUND,
+        labels::BORDER,
+        labels::fill_label(0),
+        labels::fill_label(1),
+        labels::TEXT_BASE,
+    ];
+    let mut seen = std::collections::BTreeSet::new();
+    for &id in &r.ids {
+        assert!(allowed.contains(&id), "label {id}");
+        seen.insert(id);
+    }
+    assert_eq!(seen.len(), allowed.len());
+}
+
 fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, Error> {
     let mut argv = vec!["hueproof"];
     argv.extend_from_slice(args);
