@@ -13,6 +13,8 @@
 //! | HP105 | steps | the steps between neighbouring classes of an ordered scheme are uneven |
 //! | HP106 | midpoint | a diverging scheme's midpoint is not neutral and lightest, or its arms are unbalanced |
 //! | HP107 | crowd | more classes than can stay distinguishable; use fewer classes, labels or small multiples |
+//! | HP109 | legend | a legend swatch does not look like the marks of its class in a view |
+//! | HP108 | text | text does not reach the contrast WCAG 2.x SC 1.4.3 asks against what is behind it |
 
 use serde::Serialize;
 
@@ -47,6 +49,10 @@ pub enum Kind {
     Midpoint,
     /// HP107.
     Crowd,
+    /// HP108.
+    Text,
+    /// HP109.
+    Legend,
 }
 
 impl Kind {
@@ -60,6 +66,8 @@ impl Kind {
             Kind::Steps => "HP105",
             Kind::Midpoint => "HP106",
             Kind::Crowd => "HP107",
+            Kind::Text => "HP108",
+            Kind::Legend => "HP109",
         }
     }
 
@@ -73,6 +81,8 @@ impl Kind {
             Kind::Steps => "steps",
             Kind::Midpoint => "midpoint",
             Kind::Crowd => "crowd",
+            Kind::Text => "text",
+            Kind::Legend => "legend",
         }
     }
 }

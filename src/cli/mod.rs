@@ -13,6 +13,7 @@ use clap::{Parser, Subcommand};
 use crate::error::{Error, ExitKind};
 
 mod breaks;
+mod check;
 mod inspect;
 mod join;
 mod palette;
@@ -53,6 +54,9 @@ pub enum Command {
     New(starter::NewArgs),
     /// Render every template against the built-in demo data.
     Demo(starter::DemoArgs),
+    /// Audit a figure on its rendered pixels under every view: classes
+    /// that blend, fade, glare or break their order.
+    Check(check::CheckArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -88,6 +92,7 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::Render(args) => render::run(args),
         Command::New(args) => starter::run_new(args),
         Command::Demo(args) => starter::run_demo(args),
+        Command::Check(args) => check::run(args),
     }
 }
 

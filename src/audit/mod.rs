@@ -1,0 +1,323 @@
+//! The measured audit of hueproof's own figures: the figure's SVG is
+//! rendered twice at one DPI, once as readers see it and once as a label
+//! raster ([`labels`]); the rendered raster is transformed for every view
+//! with the vision fast path and measured class by class ([`measure`]);
+//! the measurements are judged into findings ([`judge`], with the
+//! size-dependent thresholds of [`stone2014`]); the result is a
+//! serialisable [`Report`].
+//!
+//! Only SVG that carries hueproof's `data-class` attributes can be audited
+//! for now; class detection for SVG made by other tools is not available.
+
+pub mod judge;
+pub mod labels;
+pub mod measure;
+pub mod stone2014;
+pub mod text;
+
+use std::path::Path;
+
+use serde::Serialize;
+use serde::ser::SerializeMap;
+
+use crate::color::Srgb;
+use crate::error::Result;
+use crate::findings::{Kind, Severity};
+use crate::scheme::SchemeKind;
+use crate::vision::{CvdModel, NamedView, Simulation};
+use crate::{raster, svg};
+
+/// How to audit.
+#[derive(Debug, Clone)]
+pub struct Options {
+    /// The views, by name as in `inspect`.
+    pub views: Vec<NamedView>,
+    /// The simulation model (None: the documented choice per view).
+    pub model: Option<CvdModel>,
+    /// Rendering resolution of the audit.
+    pub dpi: f64,
+    /// Viewing distance in centimetres (40: print and screen).
+    pub viewing_distance_cm: f64,
+    /// The kind of scheme, when known (from the spec); order, glare and
+    /// midpoint are judged only when it is.
+    pub scheme: Option<SchemeKind>,
+    /// Findings at or above this severity fail the audit.
+    pub fail_on: Severity,
+    /// Thresholds.
+    pub thresholds: judge::Thresholds,
+    /// Classes muted on purpose (faded to gray for emphasis of others):
+    /// not judged.
+    pub muted: Vec<String>,
+    /// For a diverging scheme: where the arms meet, when known (from the
+    /// spec); else it is taken at the lightest class.
+    pub split: Option<judge::Split>,
+}
+
+impl Options {
+    /// The defaults: the five default views, 40 cm, 150 DPI, fail on errors.
+    pub fn new() -> Options {
+        Options {
+            views: crate::vision::parse_views(crate::vision::DEFAULT_VIEWS)
+                .expect("the default views parse"),
+            model: None,
+            dpi: 150.0,
+            viewing_distance_cm: 40.0,
+            scheme: None,
+            fail_on: Severity::Error,
+            thresholds: judge::Thresholds::default(),
+            muted: Vec::new(),
+            split: None,
+        }
+    }
+}
+
+impl Default for Options {
+    fn default() -> Self {
+        Options::new()
+    }
+}
+
+/// Colours in view order, serialised as a JSON object `{VIEW: "#rrggbb"}`
+/// keeping that order.
+#[derive(Debug, Clone, PartialEq)]
+pub struct PerView(pub Vec<(String, String)>);
+
+impl Serialize for PerView {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> std::result::Result<S::Ok, S::Error> {
+        let mut m = s.serialize_map(Some(self.0.len()))?;
+        for (k, v) in &self.0 {
+            m.serialize_entry(k, v)?;
+        }
+        m.end()
+    }
+}
+
+/// One class as measured.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct ClassReport {
+    /// The class id (`c1`, ..., `no-data`, `ramp`, `all`).
+    pub id: String,
+    /// Its nominal fill (where not a flat colour, the measured normal one).
+    pub fill: String,
+    /// Rendered area in pixels.
+    pub area_px: usize,
+    /// Separate regions.
+    pub regions: usize,
+    /// Typical mark size: median inscribed diameter, pixels.
+    pub mark_size_px: f64,
+    /// The same as a visual angle at the viewing distance, degrees.
+    pub mark_angle_deg: f64,
+    /// The measured colour per view.
+    pub measured: PerView,
+}
+
+/// One finding of the audit.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct AuditFinding {
+    /// Stable code, e.g. `HP101`.
+    pub code: &'static str,
+    /// The kind.
+    pub kind: Kind,
+    /// Severity.
+    pub severity: Severity,
+    /// The view it occurs in.
+    pub view: String,
+    /// The class ids involved.
+    pub classes: Vec<String>,
+    /// The measured value.
+    pub measured: f64,
+    /// The threshold it was judged against.
+    pub threshold: f64,
+    /// What was measured, e.g. `delta_e2000`.
+    pub measure: &'static str,
+    /// One sentence for people.
+    pub message: String,
+    /// The smallest change that fixes it, in words (blend, fade, order).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub fix: Option<String>,
+}
+
+/// The audit's result.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Report {
+    /// No finding reaches the fail level.
+    pub passed: bool,
+    /// The views, by name.
+    pub views: Vec<String>,
+    /// Audit resolution.
+    pub dpi: f64,
+    /// Viewing distance, cm.
+    pub viewing_distance_cm: f64,
+    /// The classes.
+    pub classes: Vec<ClassReport>,
+    /// Shared edge length in pixels between touching classes.
+    pub contacts: Vec<Contact>,
+    /// The findings, by view then code.
+    pub findings: Vec<AuditFinding>,
+}
+
+/// Two classes that touch on the figure.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Contact {
+    /// The two class ids.
+    pub classes: [String; 2],
+    /// Shared edge length, pixels (row plus column crossings).
+    pub length_px: usize,
+}
+
+/// The measurements the judge works on.
+#[derive(Debug, Clone)]
+pub struct Measured {
+    /// Class ids.
+    pub ids: Vec<String>,
+    /// Geometry from the label raster.
+    pub geometry: measure::Geometry,
+    /// Typical angle per class, degrees.
+    pub angle_deg: Vec<f64>,
+    /// Per view: colour of each class (None when it has no pixels).
+    pub colors: Vec<Vec<Option<Srgb>>>,
+    /// Per view: colour of each class's legend swatch.
+    pub swatches: Vec<Vec<Option<Srgb>>>,
+    /// Per view: the background colour.
+    pub background: Vec<Srgb>,
+    /// Per view, per class: the contrast ratio of each crossing into the
+    /// background (the highest along the crossing), median over crossings.
+    pub boundary: Vec<Vec<Option<f64>>>,
+    /// The text elements as written.
+    pub texts: Vec<labels::TextInfo>,
+    /// Per view, per text element: the WCAG contrast of its specified fill
+    /// (simulated) against the median of the pixels around it.
+    pub text_contrast: Vec<Vec<Option<f64>>>,
+}
+
+fn rgb8(c: [u8; 3]) -> Srgb {
+    Srgb::from_rgb8(c[0], c[1], c[2])
+}
+
+/// Audit the SVG text `svg` (`name` names it in messages).
+pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
+    let label = labels::label_svg(name, svg_text)?;
+    let doc = raster::parse(name, svg_text.as_bytes())?;
+    let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
+    let img = raster::render(name, &doc, opt.dpi, bg)?;
+    let lab = labels::render_labels(name, &label, opt.dpi)?;
+    let n = label.classes.ids.len();
+    let geometry = measure::geometry(&lab, n, opt.dpi);
+    let dist_mm = opt.viewing_distance_cm * 10.0;
+    let angle_deg: Vec<f64> = geometry
+        .size_px
+        .iter()
+        .map(|&px| stone2014::visual_angle_deg(stone2014::px_to_mm(px, opt.dpi), dist_mm))
+        .collect();
+    let mut m = Measured {
+        ids: label.classes.ids.clone(),
+        geometry,
+        angle_deg,
+        colors: Vec::new(),
+        swatches: Vec::new(),
+        background: Vec::new(),
+        boundary: Vec::new(),
+        texts: label.texts.clone(),
+        text_contrast: Vec::new(),
+    };
+    let boxes = measure::text_boxes(&lab, label.texts.len());
+    for v in &opt.views {
+        let sim = Simulation::new(v.view, opt.model);
+        let mut buf = img.rgba.clone();
+        crate::vision::raster::simulate_rgba8(&sim, img.width as usize, &mut buf);
+        let core = &m.geometry.core;
+        let part = |l: u16| measure::part_color(&buf, &lab, core, l).map(rgb8);
+        let background = part(labels::BACKGROUND).unwrap_or(sim.apply(bg));
+        m.colors
+            .push((0..n).map(|k| part(labels::fill_label(k))).collect());
+        m.swatches
+            .push((0..n).map(|k| part(labels::swatch_label(k))).collect());
+        let lum = |i: usize| {
+            crate::color::wcag::relative_luminance(Srgb::from_rgb8(
+                buf[4 * i],
+                buf[4 * i + 1],
+                buf[4 * i + 2],
+            ))
+        };
+        let lb = crate::color::wcag::relative_luminance(background);
+        m.boundary.push(
+            m.geometry
+                .crossings
+                .iter()
+                .map(|cs| {
+                    if cs.is_empty() {
+                        return None;
+                    }
+                    let per: Vec<f64> = cs
+                        .iter()
+                        .map(|run| {
+                            run.iter()
+                                .map(|&i| {
+                                    crate::color::wcag::contrast_ratio_of_luminances(lum(i), lb)
+                                })
+                                .fold(1.0, f64::max)
+                        })
+                        .collect();
+                    Some(measure::median(per))
+                })
+                .collect(),
+        );
+        m.text_contrast.push(
+            boxes
+                .iter()
+                .zip(&m.texts)
+                .map(|(bx, t)| {
+                    let b = (*bx)?;
+                    let around = measure::around_text(&buf, &lab, b, 2)?;
+                    let fg = match t.fill {
+                        Some(f) => sim.apply(f),
+                        None => rgb8(measure::median_rgb(&buf, |i| {
+                            lab.ids[i] >= labels::TEXT_BASE
+                        })?),
+                    };
+                    Some(crate::color::wcag::contrast_ratio(fg, rgb8(around)))
+                })
+                .collect(),
+        );
+        m.background.push(background);
+    }
+    let findings = judge::judge(&m, opt);
+    let classes = (0..n)
+        .map(|k| ClassReport {
+            id: m.ids[k].clone(),
+            fill: label.classes.fills[k]
+                .or(m.colors.first().and_then(|c| c[k]))
+                .map(svg::hex)
+                .unwrap_or_default(),
+            area_px: m.geometry.area[k],
+            regions: m.geometry.regions[k],
+            mark_size_px: (m.geometry.size_px[k] * 100.0).round() / 100.0,
+            mark_angle_deg: (m.angle_deg[k] * 1000.0).round() / 1000.0,
+            measured: PerView(
+                opt.views
+                    .iter()
+                    .zip(&m.colors)
+                    .map(|(v, c)| (v.name.clone(), c[k].map(svg::hex).unwrap_or_default()))
+                    .collect(),
+            ),
+        })
+        .collect();
+    let contacts = m
+        .geometry
+        .contacts
+        .iter()
+        .map(|((a, b), len)| Contact {
+            classes: [m.ids[*a].clone(), m.ids[*b].clone()],
+            length_px: *len,
+        })
+        .collect();
+    Ok(Report {
+        passed: !findings.iter().any(|f| f.severity >= opt.fail_on),
+        views: opt.views.iter().map(|v| v.name.clone()).collect(),
+        dpi: opt.dpi,
+        viewing_distance_cm: opt.viewing_distance_cm,
+        classes,
+        contacts,
+        findings,
+    })
+}
