@@ -533,3 +533,29 @@ fn check_exit_codes_and_json_shape() {
     let e = cli(&["check", bad.to_str().unwrap(), "--viewing-distance", "0"]).unwrap_err();
     assert_eq!(e.exit_kind(), ExitKind::BadInput);
 }
+
+#[test]
+fn the_diverging_template_passes_with_its_class_at_the_midpoint_in_the_low_arm() {
+    // Regression: the class whose upper bound is the midpoint (-3.4 to 0]
+    // belongs to the low arm; it was once coloured from the high arm,
+    // which broke the order and the arms' balance.
+    let d = tmp("diverging");
+    let spec = d.join("diverging-map.toml");
+    cli(&["new", "diverging-map", "-o", spec.to_str().unwrap()]).unwrap();
+    let out = cli(&["check", spec.to_str().unwrap(), "--dpi", "72", "--json"]).unwrap();
+    let v: serde_json::Value = serde_json::from_str(&out.stdout).unwrap();
+    let errors: Vec<_> = v["findings"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|f| f["severity"] == "error")
+        .collect();
+    assert!(errors.is_empty(), "{errors:?}");
+    let order: Vec<_> = v["findings"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|f| f["kind"] == "order" || f["kind"] == "midpoint")
+        .collect();
+    assert!(order.is_empty(), "{order:?}");
+}

@@ -419,7 +419,7 @@ fn numeric(
     let cols = match mid {
         Some(m) if fig.colors.list.is_none() => {
             // Each side takes the colours of its own arm.
-            let below = c.breaks.iter().filter(|b| **b < m).count();
+            let below = c.breaks.iter().filter(|b| **b <= m).count();
             let centre = usize::from(
                 c.breaks.iter().any(|b| *b >= m) && {
                     let i = below;
