@@ -54,16 +54,12 @@ pub fn read(path: &Path, spec: &ColumnSpec) -> Result<Sample, Error> {
 
 /// Parse the column from CSV `bytes`; `path` names the file in messages.
 pub fn parse(bytes: &[u8], path: &Path, spec: &ColumnSpec) -> Result<Sample, Error> {
-    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
     let invalid = |location: Option<String>, message: String| Error::Invalid {
         path: path.to_path_buf(),
         location,
         message,
     };
-    let mut reader = csv::ReaderBuilder::new()
-        .delimiter(spec.delimiter)
-        .has_headers(true)
-        .from_reader(bytes);
+    let mut reader = crate::table::csv_reader(bytes, spec.delimiter);
     let headers = reader
         .headers()
         .map_err(|e| {

@@ -89,12 +89,7 @@ fn read_table_bytes(
     bytes: &[u8],
     options: &TableOptions,
 ) -> std::result::Result<Table, (Option<String>, String)> {
-    // Spreadsheet exports often start with a byte-order mark.
-    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
-    let mut rdr = csv::ReaderBuilder::new()
-        .has_headers(true)
-        .flexible(false)
-        .from_reader(bytes);
+    let mut rdr = super::csv_reader(bytes, b',');
     let headers: Vec<String> = rdr
         .headers()
         .map_err(|e| {

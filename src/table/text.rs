@@ -29,16 +29,12 @@ impl TextTable {
 
     /// Parse CSV bytes; `path` names the data in messages.
     pub fn from_bytes(path: &Path, bytes: &[u8]) -> Result<TextTable, Error> {
-        let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
         let invalid = |location: Option<String>, message: String| Error::Invalid {
             path: path.to_path_buf(),
             location,
             message,
         };
-        let mut rdr = csv::ReaderBuilder::new()
-            .has_headers(true)
-            .flexible(false)
-            .from_reader(bytes);
+        let mut rdr = super::csv_reader(bytes, b',');
         let headers: Vec<String> = rdr
             .headers()
             .map_err(|e| {
