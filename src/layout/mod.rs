@@ -616,56 +616,41 @@ fn plot_panels(fig: &Figure, enc: &Encoding, frames: &[Rect]) -> Vec<Group> {
                 Anchor::Middle,
             ));
         }
-        match &yt {
-            Some(t) => {
-                for (v, l) in t.values.iter().zip(&ylabels) {
-                    let y = sy(*v);
-                    if axes.grid {
-                        ax.push(
-                            Node::new(Shape::Lines(vec![vec![
-                                [inner.x, y],
-                                [inner.x + inner.w, y],
-                            ]]))
-                            .stroke(grid_color, 0.4),
-                        );
-                    }
-                    ax.push(
-                        Node::new(Shape::Lines(vec![vec![
-                            [inner.x - size * 0.3, y],
-                            [inner.x, y],
-                        ]]))
-                        .stroke(color, 0.5),
-                    );
-                    ax.push(text(
-                        [inner.x - size * 0.45, y + size * 0.35],
-                        l,
-                        size,
-                        false,
-                        Anchor::End,
-                    ));
-                }
+        // Vertical-axis rows: value ticks (with tick marks) or ranked
+        // names (bands, no tick marks), each with its gridline and label.
+        let rows: Vec<(f64, &String)> = match &yt {
+            Some(t) => t.values.iter().map(|v| sy(*v)).zip(&ylabels).collect(),
+            None => (0..ylabels.len())
+                .map(|i| sy(i as f64))
+                .zip(&ylabels)
+                .collect(),
+        };
+        for (y, l) in rows {
+            if axes.grid {
+                ax.push(
+                    Node::new(Shape::Lines(vec![vec![
+                        [inner.x, y],
+                        [inner.x + inner.w, y],
+                    ]]))
+                    .stroke(grid_color, 0.4),
+                );
             }
-            None => {
-                for (i, l) in ylabels.iter().enumerate() {
-                    let y = sy(i as f64);
-                    if axes.grid {
-                        ax.push(
-                            Node::new(Shape::Lines(vec![vec![
-                                [inner.x, y],
-                                [inner.x + inner.w, y],
-                            ]]))
-                            .stroke(grid_color, 0.4),
-                        );
-                    }
-                    ax.push(text(
-                        [inner.x - size * 0.45, y + size * 0.35],
-                        l,
-                        size,
-                        false,
-                        Anchor::End,
-                    ));
-                }
+            if yt.is_some() {
+                ax.push(
+                    Node::new(Shape::Lines(vec![vec![
+                        [inner.x - size * 0.3, y],
+                        [inner.x, y],
+                    ]]))
+                    .stroke(color, 0.5),
+                );
             }
+            ax.push(text(
+                [inner.x - size * 0.45, y + size * 0.35],
+                l,
+                size,
+                false,
+                Anchor::End,
+            ));
         }
         ax.push(
             Node::new(Shape::Lines(vec![vec![
