@@ -857,23 +857,21 @@ fn map_items(
                 &format!("context feature {}", f.display_key()),
             )?);
         }
-        contexts_push(
-            fig,
-            ContextLayer {
-                geometries,
-                fill,
-                stroke: Stroke {
-                    color: cx.color(
-                        &format!("map.context.{i}.stroke"),
-                        c.stroke.as_ref(),
-                        dstroke,
-                    )?,
-                    width: cx.length(&format!("map.context.{i}.width"), c.width.as_ref(), 0.5)?,
-                },
-                below: c.below.unwrap_or(false),
-                name: c.shapes.clone(),
-            },
-        );
+        let stroke = Stroke {
+            color: cx.color(
+                &format!("map.context.{i}.stroke"),
+                c.stroke.as_ref(),
+                dstroke,
+            )?,
+            width: cx.length(&format!("map.context.{i}.width"), c.width.as_ref(), 0.5)?,
+        };
+        fig.context.push(ContextLayer {
+            geometries,
+            fill,
+            stroke,
+            below: c.below.unwrap_or(false),
+            name: c.shapes.clone(),
+        });
     }
 
     match fig.kind {
@@ -985,10 +983,6 @@ fn map_items(
         }
     }
     Ok(())
-}
-
-fn contexts_push(fig: &mut Figure, layer: ContextLayer) {
-    fig.context.push(layer);
 }
 
 fn plot_items(
