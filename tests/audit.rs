@@ -3,15 +3,17 @@
 //! against the demo data), each flagged with the right code and view and
 //! nothing else. Outside references are named beside each check.
 
+mod common;
+
+use common::cli;
+
 use std::path::Path;
 
-use clap::Parser;
+use hueproof::ExitKind;
 use hueproof::audit::{self, Options, Report};
-use hueproof::cli::{Cli, run};
 use hueproof::color::Srgb;
 use hueproof::scheme::SchemeKind;
 use hueproof::vision::Simulation;
-use hueproof::{Error, ExitKind};
 
 const VIEWS: [&str; 5] = [
     "normal",
@@ -455,17 +457,8 @@ fn the_label_raster_is_free_of_anti_aliasing() {
     assert_eq!(seen.len(), allowed.len());
 }
 
-fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, Error> {
-    let mut argv = vec!["hueproof"];
-    argv.extend_from_slice(args);
-    run(Cli::try_parse_from(argv).unwrap())
-}
-
 fn tmp(name: &str) -> std::path::PathBuf {
-    let d = std::env::temp_dir().join(format!("hueproof-audit-{}-{name}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).unwrap();
-    d
+    common::scratch("audit", name)
 }
 
 #[test]

@@ -16,7 +16,6 @@ mod common;
 use std::collections::BTreeMap;
 use std::path::{Path, PathBuf};
 
-use clap::Parser;
 use hueproof::ExitKind;
 use hueproof::classify::column::{self, ColumnSpec};
 use hueproof::classify::diverging::{self, Arrangement, SideMethod};
@@ -24,7 +23,6 @@ use hueproof::classify::head_tail::StopRule;
 use hueproof::classify::rounding::{self, RoundRule};
 use hueproof::classify::std_dev::{self, Multiples};
 use hueproof::classify::{self, Method, Sample, fisher_jenks, unclassed};
-use hueproof::cli::{Cli, run};
 use proptest::prelude::*;
 use serde_json::Value;
 
@@ -375,11 +373,7 @@ fn missing_markers_are_counted_and_configurable() {
     );
 }
 
-fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, hueproof::Error> {
-    let mut all = vec!["hueproof"];
-    all.extend_from_slice(args);
-    run(Cli::try_parse_from(all).unwrap())
-}
+use common::cli;
 
 /// The command end to end on the reference lognormal sample written as a
 /// CSV with missing values: same bounds as the reference (natural, k = 5),

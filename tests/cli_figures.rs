@@ -1,21 +1,14 @@
 //! `hueproof new`, `render` and `demo` driven through the command-line
 //! layer (parsed by clap, run by the library, no process spawned).
 
-use clap::Parser;
-use hueproof::cli::{Cli, run};
-use hueproof::{Error, ExitKind};
+mod common;
 
-fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, Error> {
-    let mut argv = vec!["hueproof"];
-    argv.extend_from_slice(args);
-    run(Cli::try_parse_from(argv).unwrap())
-}
+use common::cli;
+
+use hueproof::ExitKind;
 
 fn tmp(name: &str) -> std::path::PathBuf {
-    let d = std::env::temp_dir().join(format!("hueproof-cli-fig-{}-{name}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&d);
-    std::fs::create_dir_all(&d).unwrap();
-    d
+    common::scratch("cli-fig", name)
 }
 
 #[test]

@@ -83,3 +83,20 @@ pub fn plain_fisher_programme(v: &[f64], k: usize) -> f64 {
     }
     best[n]
 }
+
+/// Run a hueproof command line through the library (parsed by clap, no
+/// process spawned).
+pub fn cli(args: &[&str]) -> Result<hueproof::cli::Outcome, hueproof::Error> {
+    use clap::Parser;
+    let mut argv = vec!["hueproof"];
+    argv.extend_from_slice(args);
+    hueproof::cli::run(hueproof::cli::Cli::try_parse_from(argv).unwrap())
+}
+
+/// A fresh, empty scratch folder for one test.
+pub fn scratch(suite: &str, name: &str) -> PathBuf {
+    let d = std::env::temp_dir().join(format!("hueproof-{suite}-{}-{name}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&d);
+    std::fs::create_dir_all(&d).unwrap();
+    d
+}
