@@ -31,6 +31,17 @@ pub enum Severity {
     Error,
 }
 
+impl Severity {
+    /// The name as in JSON: `note`, `warning`, `error`.
+    pub fn name(self) -> &'static str {
+        match self {
+            Severity::Note => "note",
+            Severity::Warning => "warning",
+            Severity::Error => "error",
+        }
+    }
+}
+
 /// The kinds of finding, each with a stable code.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize)]
 #[serde(rename_all = "lowercase")]

@@ -517,12 +517,18 @@ fn check_exit_codes_and_json_shape() {
     .unwrap();
     assert_eq!(text.kind, ExitKind::Success);
     assert!(text.stdout.contains("passed"));
-    // An SVG without hueproof's class markup: said plainly, exit 2.
+    // An SVG without hueproof's class markup is audited on its fills.
     let foreign = d.join("other.svg");
-    std::fs::write(&foreign, r#"<svg xmlns="http://www.w3.org/2000/svg" width="10" height="10"><rect width="5" height="5" fill="red"/></svg>"#).unwrap();
-    let e = cli(&["check", foreign.to_str().unwrap()]).unwrap_err();
+    std::fs::write(&foreign, r##"<svg xmlns="http://www.w3.org/2000/svg" width="40" height="40"><rect width="30" height="30" fill="#4060a0"/></svg>"##).unwrap();
+    let out = cli(&["check", foreign.to_str().unwrap(), "--json"]).unwrap();
+    assert_eq!(out.kind, ExitKind::Success);
+    let v: serde_json::Value = serde_json::from_str(&out.stdout).unwrap();
+    assert_eq!(v["classes_from"], "fills");
+    assert_eq!(v["classes"][0]["id"], "#4060a0");
+    let not_svg = d.join("not.svg");
+    std::fs::write(&not_svg, "<svg").unwrap();
+    let e = cli(&["check", not_svg.to_str().unwrap()]).unwrap_err();
     assert_eq!(e.exit_kind(), ExitKind::BadInput);
-    assert!(e.to_string().contains("not available yet"), "{e}");
     let e = cli(&["check", bad.to_str().unwrap(), "--viewing-distance", "0"]).unwrap_err();
     assert_eq!(e.exit_kind(), ExitKind::BadInput);
 }

@@ -130,8 +130,11 @@ pub fn blend_threshold(p: f64, angle_deg: f64) -> f64 {
 }
 
 fn judged(id: &str) -> bool {
-    id.strip_prefix('c')
-        .is_some_and(|n| n.parse::<u64>().is_ok())
+    // Numbered classes, and the fills detected in SVG from other tools.
+    id.starts_with('#')
+        || id
+            .strip_prefix('c')
+            .is_some_and(|n| n.parse::<u64>().is_ok())
 }
 
 fn r2(v: f64) -> f64 {

@@ -13,6 +13,8 @@ use crate::color::Srgb;
 use crate::error::{Error, Result};
 use crate::raster;
 
+use super::style::Cascade;
+
 /// The background (and anything outside every drawn element).
 pub const BACKGROUND: u16 = 0;
 /// Strokes: borders of marks and swatches.
@@ -105,7 +107,14 @@ pub struct LabelSvg {
     pub classes: SceneClasses,
     /// The text elements, in document order.
     pub texts: Vec<TextInfo>,
+    /// For SVG without `data-class` marks: the classes were detected from
+    /// distinct solid fills (their alphas, 0-255, here) and are
+    /// provisional until [`settle_detected`] drops the small ones and
+    /// orders the rest.
+    pub detected: Option<Vec<u8>>,
 }
+
+use super::detect::fill_id;
 
 fn label_hex(l: u16) -> String {
     format!("#{:02x}{:02x}00", l & 0xff, l >> 8)
@@ -154,7 +163,17 @@ struct Ctx {
     stroke_width: String,
     font_size: String,
     font_weight: String,
+    /// `color`, for `currentColor`.
+    color: String,
+    /// `fill-opacity` (inherited).
+    fill_opacity: f64,
+    /// The product of the ancestors' and the element's `opacity`.
+    opacity: f64,
 }
+
+/// A distinct solid fill of SVG made by another tool: colour and total
+/// alpha (0-255).
+type FillKey = ([u8; 3], u8);
 
 const SHAPES: [&str; 8] = [
     "path", "rect", "circle", "ellipse", "line", "polyline", "polygon", "use",
@@ -178,6 +197,14 @@ fn painted(v: &str) -> bool {
 
 struct Writer<'a> {
     ids: &'a [String],
+    css: &'a Cascade<'a>,
+    /// For SVG without `data-class` marks: the distinct solid fills met
+    /// so far, the position being the provisional class index.
+    foreign: Option<Vec<FillKey>>,
+    /// The canvas in user units (for spotting a background rectangle).
+    canvas: Option<(f64, f64)>,
+    /// Whether a shape has been painted yet.
+    painted_any: bool,
     fills: Vec<Option<Srgb>>,
     background: Option<Srgb>,
     texts: Vec<TextInfo>,
@@ -214,7 +241,7 @@ impl Writer<'_> {
             self.out.push_str(&escape(n.text().unwrap_or("")));
             return;
         }
-        if !n.is_element() {
+        if !n.is_element() || n.has_tag_name("style") {
             return;
         }
         self.open(n, "");
@@ -243,32 +270,36 @@ impl Writer<'_> {
         }
         let tag = n.tag_name().name();
         match tag {
+            // Style sheets are resolved here (see `style`), so the label
+            // SVG must not carry them: they would override label colours.
+            "style" => return Ok(()),
             "defs" | "clipPath" | "mask" | "pattern" | "linearGradient" | "radialGradient"
-            | "symbol" | "marker" | "style" => {
+            | "symbol" | "marker" => {
                 self.copy(n, depth);
                 return Ok(());
             }
-            "title" | "desc" | "metadata" | "image" | "foreignObject" | "script" => {
+            "title" | "desc" | "metadata" | "foreignObject" | "script" => {
                 return Ok(());
             }
             _ => {}
         }
-        let mut c = ctx.clone();
-        if let Some(f) = n.attribute("fill") {
-            c.fill = f.to_string();
+        let c = self.styled(n, ctx);
+        if self.css.get(n, "display").is_some_and(|d| d.trim() == "none") {
+            return Ok(());
         }
-        if let Some(s) = n.attribute("stroke") {
-            c.stroke = s.to_string();
+        if tag == "image" {
+            // Embedded pictures are drawn, but are no class: label them as
+            // "other" so that they count neither as background nor marks.
+            let _ = write!(self.out, "<rect fill=\"{}\"", label_hex(OTHER));
+            for a in ["x", "y", "width", "height", "transform"] {
+                if let Some(v) = n.attribute(a) {
+                    let _ = write!(self.out, " {a}=\"{}\"", escape(v));
+                }
+            }
+            self.out.push_str("/>");
+            return Ok(());
         }
-        if let Some(w) = n.attribute("stroke-width") {
-            c.stroke_width = w.to_string();
-        }
-        if let Some(f) = n.attribute("font-size") {
-            c.font_size = f.to_string();
-        }
-        if let Some(f) = n.attribute("font-weight") {
-            c.font_weight = f.to_string();
-        }
+        let mut c = c;
         let role = n.attribute("data-role");
         let class = n
             .attribute("data-class")
@@ -316,9 +347,12 @@ impl Writer<'_> {
                 (fill_label(k), BORDER)
             } else if let Some(k) = c.legend {
                 (swatch_label(k), BORDER)
+            } else if self.foreign.is_some() && fill {
+                (self.foreign_label(n, &c), BORDER)
             } else {
                 (OTHER, OTHER)
             };
+            self.painted_any |= fill || stroke;
             let mut extra = String::new();
             let _ = write!(
                 extra,
@@ -346,6 +380,107 @@ impl Writer<'_> {
         }
         let _ = write!(self.out, "</{tag}>");
         Ok(())
+    }
+
+    /// The context of `n`: its parent's, with the properties `n` declares
+    /// (through the cascade) applied.
+    fn styled(&self, n: roxmltree::Node, parent: &Ctx) -> Ctx {
+        let mut c = parent.clone();
+        let get = |name: &str| self.css.get(n, name).map(|v| v.trim().to_string());
+        if let Some(v) = get("color") {
+            c.color = v;
+        }
+        let current = |v: String, c: &Ctx| {
+            if v.eq_ignore_ascii_case("currentcolor") {
+                c.color.clone()
+            } else {
+                v
+            }
+        };
+        if let Some(v) = get("fill") {
+            c.fill = current(v, &c);
+        }
+        if let Some(v) = get("stroke") {
+            c.stroke = current(v, &c);
+        }
+        if let Some(v) = get("stroke-width") {
+            c.stroke_width = v;
+        }
+        if let Some(v) = get("font-size") {
+            c.font_size = v;
+        }
+        if let Some(v) = get("font-weight") {
+            c.font_weight = v;
+        }
+        let unit = |v: Option<String>| {
+            v.and_then(|v| {
+                let (num, scale) = match v.strip_suffix('%') {
+                    Some(p) => (p.to_string(), 0.01),
+                    None => (v, 1.0),
+                };
+                num.trim().parse::<f64>().ok().map(|x| (x * scale).clamp(0.0, 1.0))
+            })
+        };
+        if let Some(v) = unit(get("fill-opacity")) {
+            c.fill_opacity = v;
+        }
+        if let Some(v) = unit(get("opacity")) {
+            c.opacity *= v;
+        }
+        c
+    }
+
+    /// The label of a filled shape of SVG without `data-class` marks: the
+    /// background for a first rectangle covering the canvas, else the
+    /// provisional class of its solid fill, else "other" (gradients,
+    /// patterns, more distinct fills than can be labelled).
+    fn foreign_label(&mut self, n: roxmltree::Node, c: &Ctx) -> u16 {
+        let Ok(color) = crate::color::parse_color(&c.fill) else {
+            return OTHER;
+        };
+        let alpha = color.rgba.alpha * c.fill_opacity * c.opacity;
+        if alpha <= 0.0 {
+            return OTHER;
+        }
+        let rgb = color.rgba.rgb;
+        if !self.painted_any && alpha >= 1.0 && n.has_tag_name("rect") && self.covers_canvas(n) {
+            self.background = Some(rgb);
+            return BACKGROUND;
+        }
+        let key: FillKey = (rgb.to_rgb8(), (alpha * 255.0).round() as u8);
+        let list = self.foreign.as_mut().expect("foreign mode");
+        let k = match list.iter().position(|f| *f == key) {
+            Some(k) => k,
+            None if list.len() < MAX_CLASSES => {
+                list.push(key);
+                list.len() - 1
+            }
+            None => return OTHER,
+        };
+        fill_label(k)
+    }
+
+    /// Whether rectangle `n` (untransformed) covers at least 95% of the
+    /// canvas in both directions.
+    fn covers_canvas(&self, n: roxmltree::Node) -> bool {
+        let Some((w, h)) = self.canvas else {
+            return false;
+        };
+        if n.ancestors().any(|a| a.attribute("transform").is_some()) {
+            return false;
+        }
+        let len = |name: &str, full: f64| -> f64 {
+            let v = n.attribute(name).unwrap_or("0").trim();
+            match v.strip_suffix('%') {
+                Some(p) => p.trim().parse::<f64>().map(|p| p / 100.0 * full).unwrap_or(0.0),
+                None => v.trim_end_matches("px").parse::<f64>().unwrap_or(0.0),
+            }
+        };
+        let (x, y) = (len("x", w), len("y", h));
+        x <= 0.05 * w
+            && y <= 0.05 * h
+            && x + len("width", w) >= 0.95 * w
+            && y + len("height", h) >= 0.95 * h
     }
 
     fn copy_text(&mut self, n: roxmltree::Node, depth: usize) {
@@ -384,6 +519,24 @@ fn length_pt(v: &str, unit_pt: f64) -> Option<f64> {
     num.trim().parse::<f64>().ok().map(|x| x * factor)
 }
 
+/// The canvas in user units: the viewBox size, else width and height in
+/// CSS px.
+fn canvas(root: roxmltree::Node) -> Option<(f64, f64)> {
+    if let Some(vb) = root.attribute("viewBox") {
+        let v: Vec<f64> = vb
+            .split([' ', ','])
+            .filter(|s| !s.is_empty())
+            .filter_map(|s| s.parse().ok())
+            .collect();
+        if v.len() == 4 && v[2] > 0.0 && v[3] > 0.0 {
+            return Some((v[2], v[3]));
+        }
+    }
+    let w = root.attribute("width").and_then(|w| length_pt(w, 0.75))? / 0.75;
+    let h = root.attribute("height").and_then(|h| length_pt(h, 0.75))? / 0.75;
+    (w > 0.0 && h > 0.0).then_some((w, h))
+}
+
 /// Points per user unit of the root: its width over its viewBox width
 /// (CSS px, 0.75 pt, when it has no viewBox).
 fn unit_pt(root: roxmltree::Node) -> f64 {
@@ -413,14 +566,7 @@ pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
     }
     let mut ids = Vec::new();
     collect_classes(root, false, &mut ids);
-    if ids.is_empty() {
-        return Err(invalid(
-            name,
-            "no marks with hueproof's data-class attributes (groups with data-role=\"marks\"); \
-             class detection for SVG made by other tools is not available yet"
-                .into(),
-        ));
-    }
+    let foreign = ids.is_empty();
     if ids.len() > MAX_CLASSES {
         return Err(invalid(
             name,
@@ -431,8 +577,13 @@ pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
         ));
     }
     ids.sort_by_key(|id| class_order(id));
+    let css = Cascade::new(&doc);
     let mut w = Writer {
         ids: &ids,
+        css: &css,
+        foreign: foreign.then(Vec::new),
+        canvas: canvas(root),
+        painted_any: false,
         fills: vec![None; ids.len()],
         background: None,
         texts: Vec::new(),
@@ -447,15 +598,12 @@ pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
         stroke_width: "1".into(),
         font_size: "16".into(),
         font_weight: "normal".into(),
+        color: "black".into(),
+        fill_opacity: 1.0,
+        opacity: 1.0,
     };
     // The root: its attributes, the namespaces, and aliasing turned off.
-    let mut c = ctx.clone();
-    if let Some(f) = root.attribute("fill") {
-        c.fill = f.to_string();
-    }
-    if let Some(s) = root.attribute("stroke") {
-        c.stroke = s.to_string();
-    }
+    let c = w.styled(root, &ctx);
     w.out.push_str("<svg");
     for a in root.attributes() {
         if DROPPED_ATTRS.contains(&a.name()) || a.namespace().is_some() {
@@ -470,15 +618,26 @@ pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
         w.emit(ch, &c, 1, name)?;
     }
     w.out.push_str("</svg>\n");
+    let (ids, fills, detected) = match w.foreign.take() {
+        Some(keys) => (
+            keys.iter().map(|&(c, a)| fill_id(c, a)).collect(),
+            keys.iter()
+                .map(|&(c, _)| Some(Srgb::from_rgb8(c[0], c[1], c[2])))
+                .collect(),
+            Some(keys.iter().map(|&(_, a)| a).collect()),
+        ),
+        None => (ids.clone(), w.fills.clone(), None),
+    };
     let classes = SceneClasses {
-        fills: w.fills.clone(),
+        fills,
         background: w.background,
-        ids: ids.clone(),
+        ids,
     };
     Ok(LabelSvg {
         svg: w.out,
         classes,
         texts: w.texts,
+        detected,
     })
 }
 

@@ -6,13 +6,16 @@
 //! size-dependent thresholds of [`stone2014`]); the result is a
 //! serialisable [`Report`].
 //!
-//! Only SVG that carries hueproof's `data-class` attributes can be audited
-//! for now; class detection for SVG made by other tools is not available.
+//! SVG made by other tools, without hueproof's `data-class` attributes, is
+//! audited too: its classes are detected from its distinct solid fills
+//! ([`detect`]), with the style cascade resolved ([`style`]).
 
+pub mod detect;
 pub mod judge;
 pub mod labels;
 pub mod measure;
 pub mod stone2014;
+pub mod style;
 pub mod text;
 
 use std::path::Path;
@@ -51,6 +54,9 @@ pub struct Options {
     /// For a diverging scheme: where the arms meet, when known (from the
     /// spec); else it is taken at the lightest class.
     pub split: Option<judge::Split>,
+    /// SVG without `data-class` marks: the smallest rendered area of a
+    /// distinct fill that counts as a class, in square millimetres.
+    pub min_class_area_mm2: f64,
 }
 
 impl Options {
@@ -67,6 +73,7 @@ impl Options {
             thresholds: judge::Thresholds::default(),
             muted: Vec::new(),
             split: None,
+            min_class_area_mm2: 2.0,
         }
     }
 }
@@ -148,6 +155,10 @@ pub struct Report {
     pub dpi: f64,
     /// Viewing distance, cm.
     pub viewing_distance_cm: f64,
+    /// Where the classes come from: `markup` (hueproof's `data-class`
+    /// attributes) or `fills` (detected from the distinct solid fills of
+    /// SVG made by another tool).
+    pub classes_from: &'static str,
     /// The classes.
     pub classes: Vec<ClassReport>,
     /// Shared edge length in pixels between touching classes.
@@ -196,11 +207,14 @@ fn rgb8(c: [u8; 3]) -> Srgb {
 
 /// Audit the SVG text `svg` (`name` names it in messages).
 pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
-    let label = labels::label_svg(name, svg_text)?;
+    let mut label = labels::label_svg(name, svg_text)?;
     let doc = raster::parse(name, svg_text.as_bytes())?;
     let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
     let img = raster::render(name, &doc, opt.dpi, bg)?;
-    let lab = labels::render_labels(name, &label, opt.dpi)?;
+    let mut lab = labels::render_labels(name, &label, opt.dpi)?;
+    let px_per_mm = opt.dpi / 25.4;
+    let min_area = (opt.min_class_area_mm2 * px_per_mm * px_per_mm).ceil() as usize;
+    detect::settle_detected(&mut label, &mut lab, min_area.max(1), opt.scheme);
     let n = label.classes.ids.len();
     let geometry = measure::geometry(&lab, n, opt.dpi);
     let dist_mm = opt.viewing_distance_cm * 10.0;
@@ -316,6 +330,11 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
         views: opt.views.iter().map(|v| v.name.clone()).collect(),
         dpi: opt.dpi,
         viewing_distance_cm: opt.viewing_distance_cm,
+        classes_from: if label.detected.is_some() {
+            "fills"
+        } else {
+            "markup"
+        },
         classes,
         contacts,
         findings,

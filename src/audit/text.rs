@@ -6,32 +6,50 @@ use std::fmt::Write as _;
 
 use super::Report;
 
+/// What every report ends with.
+pub const CAUTION: &str = "This audit is an aid for design and review, computed from simulations \
+and a published model at a stated viewing distance; it is not a certification of conformance \
+with WCAG or any accessibility regulation. Follow the rules that apply to you and test with real readers.";
+
 /// The report as text.
 pub fn render(r: &Report) -> String {
     let mut s = String::new();
     let _ = writeln!(
         s,
-        "{}: {} classes, {} views, {} dpi, viewing distance {} cm",
+        "{}: {} classes{}, {} views, {} dpi, viewing distance {} cm",
         if r.passed { "passed" } else { "FAILED" },
         r.classes.len(),
+        if r.classes_from == "fills" {
+            " (detected from distinct fills)"
+        } else {
+            ""
+        },
         r.views.len(),
         r.dpi,
         r.viewing_distance_cm
     );
-    let _ = writeln!(
+    let id_w = r.classes.iter().map(|c| c.id.len()).max().unwrap_or(0).max(5);
+    let view_w: Vec<usize> = r.views.iter().map(|v| v.len().max(7)).collect();
+    let _ = write!(
         s,
-        "\nclass     fill     area_px  regions  size  {}",
-        r.views.join("  ")
+        "\n{:<id_w$}  fill     area_px  regions   size",
+        "class"
     );
+    for (v, w) in r.views.iter().zip(&view_w) {
+        let _ = write!(s, "  {v:<w$}");
+    }
+    s.truncate(s.trim_end().len());
+    s.push('\n');
     for c in &r.classes {
         let _ = write!(
             s,
-            "{:<9} {:<8} {:>8} {:>8} {:>5.2}°",
+            "{:<id_w$}  {:<7} {:>8} {:>8} {:>5.2}°",
             c.id, c.fill, c.area_px, c.regions, c.mark_angle_deg
         );
-        for (_, hex) in &c.measured.0 {
-            let _ = write!(s, "  {hex:<7}");
+        for ((_, hex), w) in c.measured.0.iter().zip(&view_w) {
+            let _ = write!(s, "  {hex:<w$}");
         }
+        s.truncate(s.trim_end().len());
         s.push('\n');
     }
     if r.findings.is_empty() {
@@ -41,10 +59,10 @@ pub fn render(r: &Report) -> String {
         for f in &r.findings {
             let _ = writeln!(
                 s,
-                "{} {} {:?} [{}] {}: {} (measured {}, threshold {})",
+                "{} {} {} [{}] {}: {} (measured {}, threshold {})",
                 f.code,
                 f.kind.name(),
-                f.severity,
+                f.severity.name(),
                 f.view,
                 f.classes.join(", "),
                 f.message,
@@ -56,5 +74,6 @@ pub fn render(r: &Report) -> String {
             }
         }
     }
+    let _ = writeln!(s, "\n{CAUTION}");
     s
 }
