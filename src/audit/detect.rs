@@ -112,10 +112,7 @@ pub fn settle_detected(
             }
         }
     }
-    let bg = label
-        .classes
-        .background
-        .unwrap_or(Srgb::new(1.0, 1.0, 1.0));
+    let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
     let kept: Vec<usize> = (0..n).filter(|&k| area[k] >= min_area_px).collect();
     let labs: Vec<Lab> = kept
         .iter()
@@ -137,7 +134,10 @@ pub fn settle_detected(
             };
         }
     }
-    label.classes.ids = ordered.iter().map(|&k| label.classes.ids[k].clone()).collect();
+    label.classes.ids = ordered
+        .iter()
+        .map(|&k| label.classes.ids[k].clone())
+        .collect();
     label.classes.fills = ordered.iter().map(|&k| label.classes.fills[k]).collect();
     label.detected = Some(ordered.iter().map(|&k| alphas[k]).collect());
 }
@@ -152,7 +152,11 @@ mod tests {
 
     #[test]
     fn sequential_order_runs_from_light_to_dark() {
-        let labs = [lab(40.0, 0.0, 0.0), lab(90.0, 0.0, 0.0), lab(65.0, 0.0, 0.0)];
+        let labs = [
+            lab(40.0, 0.0, 0.0),
+            lab(90.0, 0.0, 0.0),
+            lab(65.0, 0.0, 0.0),
+        ];
         assert_eq!(order(&labs, Some(SchemeKind::Sequential)), [1, 2, 0]);
     }
 

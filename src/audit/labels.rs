@@ -284,7 +284,11 @@ impl Writer<'_> {
             _ => {}
         }
         let c = self.styled(n, ctx);
-        if self.css.get(n, "display").is_some_and(|d| d.trim() == "none") {
+        if self
+            .css
+            .get(n, "display")
+            .is_some_and(|d| d.trim() == "none")
+        {
             return Ok(());
         }
         if tag == "image" {
@@ -418,7 +422,10 @@ impl Writer<'_> {
                     Some(p) => (p.to_string(), 0.01),
                     None => (v, 1.0),
                 };
-                num.trim().parse::<f64>().ok().map(|x| (x * scale).clamp(0.0, 1.0))
+                num.trim()
+                    .parse::<f64>()
+                    .ok()
+                    .map(|x| (x * scale).clamp(0.0, 1.0))
             })
         };
         if let Some(v) = unit(get("fill-opacity")) {
@@ -472,7 +479,11 @@ impl Writer<'_> {
         let len = |name: &str, full: f64| -> f64 {
             let v = n.attribute(name).unwrap_or("0").trim();
             match v.strip_suffix('%') {
-                Some(p) => p.trim().parse::<f64>().map(|p| p / 100.0 * full).unwrap_or(0.0),
+                Some(p) => p
+                    .trim()
+                    .parse::<f64>()
+                    .map(|p| p / 100.0 * full)
+                    .unwrap_or(0.0),
                 None => v.trim_end_matches("px").parse::<f64>().unwrap_or(0.0),
             }
         };

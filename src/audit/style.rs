@@ -37,7 +37,8 @@ impl Element for Node<'_, '_> {
     }
 
     fn pseudo_class_matches(&self, class: simplecss::PseudoClass<'_>) -> bool {
-        matches!(class, simplecss::PseudoClass::FirstChild) && self.0.prev_sibling_element().is_none()
+        matches!(class, simplecss::PseudoClass::FirstChild)
+            && self.0.prev_sibling_element().is_none()
     }
 }
 

@@ -28,13 +28,15 @@ pub fn render(r: &Report) -> String {
         r.dpi,
         r.viewing_distance_cm
     );
-    let id_w = r.classes.iter().map(|c| c.id.len()).max().unwrap_or(0).max(5);
+    let id_w = r
+        .classes
+        .iter()
+        .map(|c| c.id.len())
+        .max()
+        .unwrap_or(0)
+        .max(5);
     let view_w: Vec<usize> = r.views.iter().map(|v| v.len().max(7)).collect();
-    let _ = write!(
-        s,
-        "\n{:<id_w$}  fill     area_px  regions   size",
-        "class"
-    );
+    let _ = write!(s, "\n{:<id_w$}  fill     area_px  regions   size", "class");
     for (v, w) in r.views.iter().zip(&view_w) {
         let _ = write!(s, "  {v:<w$}");
     }
