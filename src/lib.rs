@@ -74,6 +74,7 @@ pub mod spec;
 pub mod starter;
 pub mod svg;
 pub mod table;
+pub mod thresholds;
 pub mod vision;
 
 pub use error::{Error, ExitKind};

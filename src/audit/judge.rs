@@ -14,53 +14,7 @@ use crate::scheme::SchemeKind;
 use super::stone2014::noticeable_difference;
 use super::{AuditFinding, Measured, Options};
 
-/// The thresholds of the audit.
-#[derive(Debug, Clone, PartialEq)]
-pub struct Thresholds {
-    /// Probability level of Stone et al. (2014) for classes that touch on
-    /// the figure (0.8: "reliably told apart", the model's conservative
-    /// level).
-    pub p_touching: f64,
-    /// Probability level for classes that meet only through the legend
-    /// (0.5: noticed by half the observers).
-    pub p_apart: f64,
-    /// Non-text contrast a mark's boundary needs against the background
-    /// (3:1, WCAG 2.x SC 1.4.11).
-    pub boundary_contrast: f64,
-    /// Text contrast (4.5:1, WCAG 2.x SC 1.4.3).
-    pub text_contrast: f64,
-    /// Large text contrast (3:1, WCAG 2.x SC 1.4.3; large: at least 18 pt,
-    /// or 14 pt bold).
-    pub large_text_contrast: f64,
-    /// Glare: how far (CIELAB L*) a class's lightness difference to the
-    /// background may exceed the others' median (hueproof's own choice).
-    pub glare_lightness: f64,
-    /// Midpoint: the largest CIELAB chroma of a near-neutral midpoint
-    /// (hueproof's own choice).
-    pub midpoint_chroma: f64,
-    /// Midpoint: the largest ratio between its differences to the two
-    /// arms' first classes (hueproof's own choice).
-    pub midpoint_lean: f64,
-    /// Midpoint: the largest L* difference between the arms at equal
-    /// distance from the midpoint (hueproof's own choice).
-    pub arm_lightness: f64,
-}
-
-impl Default for Thresholds {
-    fn default() -> Self {
-        Thresholds {
-            p_touching: 0.8,
-            p_apart: 0.5,
-            boundary_contrast: 3.0,
-            text_contrast: 4.5,
-            large_text_contrast: 3.0,
-            glare_lightness: 20.0,
-            midpoint_chroma: 10.0,
-            midpoint_lean: 2.0,
-            arm_lightness: 10.0,
-        }
-    }
-}
+pub use crate::thresholds::Thresholds;
 
 /// Where the two arms of a diverging scheme meet, as indices into the
 /// numbered classes in legend order.

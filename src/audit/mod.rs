@@ -14,6 +14,7 @@ pub mod detect;
 pub mod judge;
 pub mod labels;
 pub mod measure;
+pub mod settings;
 pub mod stone2014;
 pub mod style;
 pub mod text;

@@ -79,3 +79,44 @@ pub fn render(r: &Report) -> String {
     let _ = writeln!(s, "\n{CAUTION}");
     s
 }
+
+/// The most findings a summary lists one by one.
+pub const SUMMARY_LINES: usize = 12;
+
+/// A short summary for `render`: the verdict with counts, then one line
+/// per finding (at most [`SUMMARY_LINES`]).
+pub fn summary(r: &Report) -> String {
+    use crate::findings::Severity;
+    let count = |sev: Severity| r.findings.iter().filter(|f| f.severity == sev).count();
+    let plural = |n: usize, word: &str| format!("{n} {word}{}", if n == 1 { "" } else { "s" });
+    let mut s = format!(
+        "audit: {} in {} at {} dpi ({}, {})\n",
+        if r.passed { "passed" } else { "FAILED" },
+        plural(r.views.len(), "view"),
+        r.dpi,
+        plural(count(Severity::Error), "error"),
+        plural(count(Severity::Warning), "warning"),
+    );
+    for f in r.findings.iter().take(SUMMARY_LINES) {
+        let _ = writeln!(
+            s,
+            "  {} {} {} [{}] {}: {} {} against {}",
+            f.code,
+            f.kind.name(),
+            f.severity.name(),
+            f.view,
+            if f.classes.is_empty() {
+                "text".to_string()
+            } else {
+                f.classes.join(", ")
+            },
+            f.measure,
+            f.measured,
+            f.threshold
+        );
+    }
+    if r.findings.len() > SUMMARY_LINES {
+        let _ = writeln!(s, "  ... and {} more", r.findings.len() - SUMMARY_LINES);
+    }
+    s
+}

@@ -7,6 +7,7 @@ use clap::{Args, ValueEnum};
 
 use crate::audit::{self, Options};
 use crate::error::{Error, ExitKind};
+use crate::figure::audit::VIEWING_DISTANCE_RANGE;
 use crate::findings::Severity;
 use crate::scheme::SchemeKind;
 use crate::vision;
@@ -33,29 +34,98 @@ pub enum SchemeArg {
     Qualitative,
 }
 
+/// The audit flags shared by `check` and `render`: each overrides the
+/// spec's `[audit]` table.
+#[derive(Debug, Args)]
+pub struct AuditFlags {
+    /// Comma-separated views: normal, protanopia, deuteranopia, tritanopia,
+    /// achromatopsia, protanomaly=S, deuteranomaly=S, tritanomaly=S
+    /// (default: the spec's audit.views, else the first five).
+    #[arg(long, value_name = "LIST")]
+    pub views: Option<String>,
+    /// Viewing distance in centimetres, which sets the marks' visual angle
+    /// (default: the spec's audit.viewing_distance, else 40).
+    #[arg(long, value_name = "CM")]
+    pub viewing_distance: Option<f64>,
+    /// Audit resolution (default: the spec's audit.dpi, else its figure
+    /// DPI; 150 for an SVG).
+    #[arg(long, value_name = "N")]
+    pub dpi: Option<f64>,
+    /// The severity that makes the check fail with exit code 1 (default:
+    /// the spec's audit.fail_on, else error).
+    #[arg(long, value_enum, value_name = "LEVEL")]
+    pub fail_on: Option<FailOn>,
+    /// Set a threshold, NAME=VALUE (repeatable, or comma-separated);
+    /// names as in the spec's [audit.thresholds] table.
+    #[arg(long = "threshold", value_name = "NAME=VALUE", value_delimiter = ',')]
+    pub thresholds: Vec<String>,
+}
+
+impl AuditFlags {
+    /// Apply the flags over `opt`.
+    pub fn apply(&self, opt: &mut Options) -> Result<(), Error> {
+        if let Some(v) = &self.views {
+            opt.views = vision::parse_views(v)?;
+        }
+        if let Some(d) = self.viewing_distance {
+            let (lo, hi) = VIEWING_DISTANCE_RANGE;
+            if !(d.is_finite() && (lo..=hi).contains(&d)) {
+                return Err(usage(format!(
+                    "--viewing-distance {d}: expected centimetres between {lo} and {hi}"
+                )));
+            }
+            opt.viewing_distance_cm = d;
+        }
+        if let Some(d) = self.dpi {
+            if !(d.is_finite() && (10.0..=1200.0).contains(&d)) {
+                return Err(usage(format!(
+                    "--dpi {d}: expected a resolution between 10 and 1200"
+                )));
+            }
+            opt.dpi = d;
+        }
+        if let Some(f) = self.fail_on {
+            opt.fail_on = match f {
+                FailOn::Error => Severity::Error,
+                FailOn::Warning => Severity::Warning,
+            };
+        }
+        for t in &self.thresholds {
+            let Some((name, value)) = t.split_once('=') else {
+                return Err(usage(format!(
+                    "--threshold '{t}': expected NAME=VALUE, e.g. text_contrast=7"
+                )));
+            };
+            let v: f64 = value
+                .trim()
+                .parse()
+                .map_err(|_| usage(format!("--threshold '{t}': '{value}' is not a number")))?;
+            opt.thresholds
+                .set(name.trim(), v)
+                .map_err(|m| usage(format!("--threshold: {m}")))?;
+        }
+        Ok(())
+    }
+}
+
 /// Arguments of `check`.
 #[derive(Debug, Args)]
 pub struct CheckArgs {
-    /// A figure spec (.toml, rendered first) or an SVG made by hueproof.
+    /// A figure spec (.toml, rendered first) or an SVG file (hueproof's
+    /// own, or made by any other tool).
     #[arg(value_name = "SPEC|FIGURE.svg")]
     pub input: PathBuf,
-    /// Comma-separated views: normal, protanopia, deuteranopia, tritanopia,
-    /// achromatopsia, protanomaly=S, deuteranomaly=S, tritanomaly=S.
-    #[arg(long, default_value = vision::DEFAULT_VIEWS, value_name = "LIST")]
-    pub views: String,
-    /// Viewing distance in centimetres (sets the marks' visual angle).
-    #[arg(long, default_value_t = 40.0, value_name = "CM")]
-    pub viewing_distance: f64,
-    /// Audit resolution (default: the spec's DPI; 150 for an SVG).
-    #[arg(long, value_name = "N")]
-    pub dpi: Option<f64>,
-    /// The severity that makes the check fail (exit code 1).
-    #[arg(long, value_enum, default_value = "error", value_name = "LEVEL")]
-    pub fail_on: FailOn,
+    /// Views, distance, resolution, fail level and thresholds.
+    #[command(flatten)]
+    pub audit: AuditFlags,
     /// The figure's kind of scheme, for an SVG (a spec says it itself);
     /// order, glare and midpoint are judged only when it is known.
     #[arg(long, value_enum, value_name = "KIND")]
     pub scheme: Option<SchemeArg>,
+    /// SVG from other tools: the smallest total area of one fill that
+    /// counts as a class, in square millimetres.
+    #[arg(long, default_value_t = 2.0, value_name = "MM2")]
+    pub min_class_area: f64,
     /// Print one JSON object instead of text.
     #[arg(long)]
     pub json: bool,
@@ -70,58 +140,23 @@ fn usage(message: String) -> Error {
 
 /// Run `check`.
 pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
-    let mut opt = Options::new();
-    opt.views = vision::parse_views(&args.views)?;
-    if !(args.viewing_distance.is_finite()
-        && args.viewing_distance >= 5.0
-        && args.viewing_distance <= 1000.0)
-    {
-        return Err(usage(format!(
-            "--viewing-distance {}: expected centimetres between 5 and 1000",
-            args.viewing_distance
-        )));
-    }
-    opt.viewing_distance_cm = args.viewing_distance;
-    opt.fail_on = match args.fail_on {
-        FailOn::Error => Severity::Error,
-        FailOn::Warning => Severity::Warning,
-    };
-    if let Some(d) = args.dpi {
-        if !(d.is_finite() && (10.0..=1200.0).contains(&d)) {
-            return Err(usage(format!(
-                "--dpi {d}: expected a resolution between 10 and 1200"
-            )));
-        }
-    }
     let ext = args
         .input
         .extension()
         .and_then(|e| e.to_str())
         .map(str::to_ascii_lowercase);
-    let (svg, scheme, dpi) = match ext.as_deref() {
+    let (svg, mut opt) = match ext.as_deref() {
         Some("toml") => {
-            let fig = crate::figure::load(&args.input)?;
-            let scheme = fig.colors.scheme;
-            let r = crate::render::render(fig)?;
-            let classes = &r.encoding.classes;
-            opt.muted = classes
-                .iter()
-                .filter(|c| c.faded)
-                .map(|c| c.id.clone())
-                .collect();
-            if let Some(mid) = r.figure.variable.midpoint {
-                let bounds: Vec<_> = classes.iter().map(|c| (c.lower, c.upper)).collect();
-                opt.split = Some(audit::judge::split_at_midpoint(&bounds, mid));
-            }
-            let dpi = r.figure.page.dpi;
-            (r.svg, Some(scheme), dpi)
+            let r = crate::render::render(crate::figure::load(&args.input)?)?;
+            let opt = audit::settings::for_figure(&r);
+            (r.svg, opt)
         }
         Some("svg") => {
             let text = std::fs::read_to_string(&args.input).map_err(|source| Error::Read {
                 path: args.input.clone(),
                 source,
             })?;
-            (text, None, 150.0)
+            (text, Options::new())
         }
         _ => {
             return Err(usage(format!(
@@ -130,15 +165,21 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
             )));
         }
     };
-    opt.dpi = args.dpi.unwrap_or(dpi);
-    opt.scheme = args
-        .scheme
-        .map(|s| match s {
+    args.audit.apply(&mut opt)?;
+    if !(args.min_class_area.is_finite() && args.min_class_area >= 0.0) {
+        return Err(usage(format!(
+            "--min-class-area {}: expected square millimetres, 0 or more",
+            args.min_class_area
+        )));
+    }
+    opt.min_class_area_mm2 = args.min_class_area;
+    if let Some(s) = args.scheme {
+        opt.scheme = Some(match s {
             SchemeArg::Sequential => SchemeKind::Sequential,
             SchemeArg::Diverging => SchemeKind::Diverging,
             SchemeArg::Qualitative => SchemeKind::Qualitative,
-        })
-        .or(scheme);
+        });
+    }
     let report = audit::audit_svg(&args.input, &svg, &opt)?;
     let stdout = if args.json {
         let mut s = serde_json::to_string_pretty(&report)

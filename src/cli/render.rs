@@ -4,6 +4,7 @@ use std::path::PathBuf;
 
 use clap::Args;
 
+use crate::audit;
 use crate::error::{Error, ExitKind};
 use crate::figure::{self, Format};
 use crate::render;
@@ -25,6 +26,12 @@ pub struct RenderArgs {
     /// figure.formats, else svg).
     #[arg(long, value_name = "LIST")]
     pub format: Option<String>,
+    /// Do not audit the figure after writing it.
+    #[arg(long)]
+    pub no_audit: bool,
+    /// Views, distance, resolution, fail level and thresholds of the audit.
+    #[command(flatten)]
+    pub audit: super::check::AuditFlags,
 }
 
 /// Parse a format list.
@@ -62,9 +69,27 @@ pub fn run(args: RenderArgs) -> Result<Outcome, Error> {
     for p in &written {
         stdout.push_str(&format!("wrote {}\n", p.display()));
     }
+    let mut kind = ExitKind::Success;
+    if !args.no_audit {
+        // The files stay written either way; a failing audit makes the
+        // exit code 1, as `check` does, so a build can stop on it.
+        let mut opt = audit::settings::for_figure(&rendered);
+        args.audit.apply(&mut opt)?;
+        let report = audit::audit_svg(&args.spec, &rendered.svg, &opt)?;
+        stdout.push_str(&audit::text::summary(&report));
+        if !report.findings.is_empty() {
+            stdout.push_str(&format!(
+                "the full report: hueproof check {}\n",
+                args.spec.display()
+            ));
+        }
+        if !report.passed {
+            kind = ExitKind::Findings;
+        }
+    }
     Ok(Outcome {
         stdout,
         warnings: rendered.warnings.clone(),
-        kind: ExitKind::Success,
+        kind,
     })
 }

@@ -537,6 +537,7 @@ pub fn build(file: &SpecFile) -> Result<Figure, Error> {
             .iter()
             .map(|k| (k.to_string(), file.location(k)))
             .collect(),
+        audit: super::audit::audit_settings(file, page.dpi)?,
         warnings: Vec::new(),
     };
     match kind {

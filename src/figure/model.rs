@@ -367,6 +367,8 @@ pub struct Figure {
     /// Where keys that later stages may report on sit in the spec
     /// (`line L, column C, key K`), by key.
     pub locations: Vec<(String, String)>,
+    /// How the figure is audited.
+    pub audit: super::audit::AuditSettings,
     /// Things the user should know.
     pub warnings: Vec<String>,
 }

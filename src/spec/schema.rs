@@ -31,6 +31,8 @@ pub struct Spec {
     pub panels: Option<PanelsTable>,
     /// Text sizes and colour.
     pub text: Option<TextTable>,
+    /// How `check` and `render` audit the figure.
+    pub audit: Option<AuditTable>,
 }
 
 /// `[figure]`.
@@ -253,4 +255,20 @@ pub struct TextTable {
     pub min_size: Option<String>,
     /// Text colour.
     pub color: Option<String>,
+}
+
+/// `[audit]`.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct AuditTable {
+    /// View names as in `inspect`.
+    pub views: Option<Vec<String>>,
+    /// Viewing distance with a unit.
+    pub viewing_distance: Option<String>,
+    /// Audit resolution (default: the figure's).
+    pub dpi: Option<f64>,
+    /// `error` or `warning`.
+    pub fail_on: Option<String>,
+    /// Threshold overrides by name (see [`crate::thresholds::SETTINGS`]).
+    pub thresholds: Option<std::collections::BTreeMap<String, f64>>,
 }
