@@ -336,7 +336,11 @@ impl Writer<'_> {
                     bold: w == "bold"
                         || w == "bolder"
                         || w.parse::<f64>().is_ok_and(|v| v >= 700.0),
-                    content: n.descendants().filter_map(|d| d.text()).collect(),
+                    content: n
+                        .descendants()
+                        .filter(|d| d.is_text())
+                        .filter_map(|d| d.text())
+                        .collect(),
                 });
                 (TEXT_BASE + j as u16, TEXT_BASE + j as u16)
             } else if role == Some("background") {

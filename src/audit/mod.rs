@@ -14,6 +14,7 @@ pub mod detect;
 pub mod judge;
 pub mod labels;
 pub mod measure;
+pub mod propose;
 pub mod settings;
 pub mod stone2014;
 pub mod style;
@@ -166,6 +167,10 @@ pub struct Report {
     pub contacts: Vec<Contact>,
     /// The findings, by view then code.
     pub findings: Vec<AuditFinding>,
+    /// For a spec whose audit fails on its colours: a repaired palette,
+    /// checked by drawing and auditing the figure again.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub repair: Option<propose::Proposal>,
 }
 
 /// Two classes that touch on the figure.
@@ -339,5 +344,6 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
         classes,
         contacts,
         findings,
+        repair: None,
     })
 }

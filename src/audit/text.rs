@@ -13,6 +13,12 @@ with WCAG or any accessibility regulation. Follow the rules that apply to you an
 
 /// The report as text.
 pub fn render(r: &Report) -> String {
+    render_with(r, "")
+}
+
+/// The report as text, with `extra` (e.g. a proposed palette) before the
+/// closing caution.
+pub fn render_with(r: &Report, extra: &str) -> String {
     let mut s = String::new();
     let _ = writeln!(
         s,
@@ -76,6 +82,7 @@ pub fn render(r: &Report) -> String {
             }
         }
     }
+    s.push_str(extra);
     let _ = writeln!(s, "\n{CAUTION}");
     s
 }

@@ -145,18 +145,18 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
         .extension()
         .and_then(|e| e.to_str())
         .map(str::to_ascii_lowercase);
-    let (svg, mut opt) = match ext.as_deref() {
+    let (svg, mut opt, rendered) = match ext.as_deref() {
         Some("toml") => {
             let r = crate::render::render(crate::figure::load(&args.input)?)?;
             let opt = audit::settings::for_figure(&r);
-            (r.svg, opt)
+            (r.svg.clone(), opt, Some(r))
         }
         Some("svg") => {
             let text = std::fs::read_to_string(&args.input).map_err(|source| Error::Read {
                 path: args.input.clone(),
                 source,
             })?;
-            (text, Options::new())
+            (text, Options::new(), None)
         }
         _ => {
             return Err(usage(format!(
@@ -180,14 +180,19 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
             SchemeArg::Qualitative => SchemeKind::Qualitative,
         });
     }
-    let report = audit::audit_svg(&args.input, &svg, &opt)?;
+    let mut report = audit::audit_svg(&args.input, &svg, &opt)?;
+    let mut extra = String::new();
+    if let Some(r) = &rendered {
+        report.repair = audit::propose::propose(r, &report, &opt)?;
+        extra = audit::propose::describe(r, &report, &opt, report.repair.as_ref());
+    }
     let stdout = if args.json {
         let mut s = serde_json::to_string_pretty(&report)
             .map_err(|e| Error::Internal(format!("serialising the audit: {e}")))?;
         s.push('\n');
         s
     } else {
-        audit::text::render(&report)
+        audit::text::render_with(&report, &extra)
     };
     let mut out = Outcome::success(stdout);
     if !report.passed {

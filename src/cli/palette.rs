@@ -79,6 +79,15 @@ pub struct Common {
     /// and the background, in every view.
     #[arg(long, default_value_t = Thresholds::default().min_delta_e, value_name = "X")]
     pub min_delta_e: f64,
+    /// The smallest marks the palette will colour, as a length with a unit
+    /// (e.g. 4mm): raises the floor to what marks of that size need to be
+    /// told apart reliably where they touch (Stone et al. 2014, p = 0.8,
+    /// as in the figure audit).
+    #[arg(long, value_name = "LENGTH")]
+    pub mark_size: Option<String>,
+    /// Viewing distance in centimetres for --mark-size.
+    #[arg(long, default_value_t = crate::figure::audit::VIEWING_DISTANCE_CM, value_name = "CM")]
+    pub viewing_distance: f64,
     /// Output format.
     #[arg(long, value_enum, default_value = "text")]
     pub format: Format,
@@ -143,9 +152,35 @@ fn usage(what: &str, message: String) -> Error {
     }
 }
 
+/// The floor for marks of `size` (a length) seen from `distance_cm`.
+fn floor_for_marks(size: &str, distance_cm: f64) -> Result<f64, Error> {
+    let (lo, hi) = crate::figure::audit::VIEWING_DISTANCE_RANGE;
+    if !(distance_cm.is_finite() && (lo..=hi).contains(&distance_cm)) {
+        return Err(usage(
+            "--viewing-distance",
+            format!("{distance_cm}: expected centimetres between {lo} and {hi}"),
+        ));
+    }
+    let pt = crate::spec::length::parse_length(size).map_err(|m| usage("--mark-size", m))?;
+    let mm = crate::spec::length::pt_to_mm(pt);
+    if mm.is_nan() || mm <= 0.0 {
+        return Err(usage(
+            "--mark-size",
+            format!("'{size}': expected a positive length"),
+        ));
+    }
+    let angle = crate::audit::stone2014::visual_angle_deg(mm, distance_cm * 10.0);
+    let p = crate::thresholds::Thresholds::default().p_touching;
+    Ok(crate::audit::judge::blend_threshold(p, angle))
+}
+
 fn context(c: &Common) -> Result<Context, Error> {
     if !(c.min_delta_e.is_finite() && c.min_delta_e > 0.0) {
         return Err(usage("--min-delta-e", "expected a positive number".into()));
+    }
+    let mut floor = c.min_delta_e;
+    if let Some(size) = &c.mark_size {
+        floor = floor.max(floor_for_marks(size, c.viewing_distance)?);
     }
     let bg = parse_color(&c.seeing.background)?;
     Ok(Context {
@@ -153,7 +188,7 @@ fn context(c: &Common) -> Result<Context, Error> {
         views: vision::parse_views(&c.seeing.views)?,
         model: c.seeing.cvd_model.map(CvdModel::from),
         thresholds: Thresholds {
-            min_delta_e: c.min_delta_e,
+            min_delta_e: (floor * 100.0).round() / 100.0,
             ..Thresholds::default()
         },
     })

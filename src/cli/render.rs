@@ -27,8 +27,12 @@ pub struct RenderArgs {
     #[arg(long, value_name = "LIST")]
     pub format: Option<String>,
     /// Do not audit the figure after writing it.
-    #[arg(long)]
+    #[arg(long, conflicts_with = "repair")]
     pub no_audit: bool,
+    /// When the audit fails on the colours, draw the figure with the
+    /// proposed palette instead (the spec is not changed).
+    #[arg(long)]
+    pub repair: bool,
     /// Views, distance, resolution, fail level and thresholds of the audit.
     #[command(flatten)]
     pub audit: super::check::AuditFlags,
@@ -63,19 +67,53 @@ pub fn run(args: RenderArgs) -> Result<Outcome, Error> {
         (None, None) => fig.formats.clone(),
     };
     let base = args.output.clone().unwrap_or_else(|| args.spec.clone());
-    let rendered = render::render(fig)?;
-    let written = render::write_files(&rendered, &base, &formats)?;
+    let mut rendered = render::render(fig)?;
     let mut stdout = String::new();
+    let mut report = None;
+    if !args.no_audit {
+        let mut opt = audit::settings::for_figure(&rendered);
+        args.audit.apply(&mut opt)?;
+        let mut first = audit::audit_svg(&args.spec, &rendered.svg, &opt)?;
+        if args.repair && !first.passed {
+            match audit::propose::propose(&rendered, &first, &opt)? {
+                Some(p) => {
+                    stdout.push_str(&format!(
+                        "the audit failed; drawing with the {} palette (the spec is not changed):\n",
+                        if p.method == "repair" { "repaired" } else { "regenerated" }
+                    ));
+                    for c in &p.changes {
+                        stdout.push_str(&format!(
+                            "  {} {} -> {} (CIEDE2000 {:.1})\n",
+                            c.class, c.from, c.to, c.delta_e2000
+                        ));
+                    }
+                    let mut fig = rendered.figure.clone();
+                    fig.colors.list = Some(
+                        p.colors
+                            .iter()
+                            .map(|h| crate::color::parse_color(h).map(|c| c.rgba.rgb))
+                            .collect::<Result<_, _>>()
+                            .map_err(|e| Error::Internal(format!("a proposed colour: {e}")))?,
+                    );
+                    rendered = render::render(fig)?;
+                    first = audit::audit_svg(&args.spec, &rendered.svg, &opt)?;
+                }
+                None => stdout.push_str(
+                    "the audit failed and no palette repair applies; drawing the spec's colours\n",
+                ),
+            }
+        }
+        report = Some(first);
+    }
+    // Everything is drawn and audited before anything is written.
+    let written = render::write_files(&rendered, &base, &formats)?;
     for p in &written {
         stdout.push_str(&format!("wrote {}\n", p.display()));
     }
     let mut kind = ExitKind::Success;
-    if !args.no_audit {
+    if let Some(report) = report {
         // The files stay written either way; a failing audit makes the
         // exit code 1, as `check` does, so a build can stop on it.
-        let mut opt = audit::settings::for_figure(&rendered);
-        args.audit.apply(&mut opt)?;
-        let report = audit::audit_svg(&args.spec, &rendered.svg, &opt)?;
         stdout.push_str(&audit::text::summary(&report));
         if !report.findings.is_empty() {
             stdout.push_str(&format!(
