@@ -1,5 +1,5 @@
 //! `hueproof check SPEC|FIGURE.svg`: the measured audit of a figure, as
-//! text or JSON, with an exit code a build can act on.
+//! text, JSON, SARIF or JUnit XML, with an exit code a build can act on.
 
 use std::path::PathBuf;
 
@@ -8,6 +8,7 @@ use clap::{Args, ValueEnum};
 use crate::audit::{self, Options};
 use crate::error::{Error, ExitKind};
 use crate::findings::Severity;
+use crate::report::export::Exports;
 use crate::scheme::SchemeKind;
 use crate::vision;
 
@@ -56,9 +57,18 @@ pub struct CheckArgs {
     /// order, glare and midpoint are judged only when it is known.
     #[arg(long, value_enum, value_name = "KIND")]
     pub scheme: Option<SchemeArg>,
-    /// Print one JSON object instead of text.
-    #[arg(long)]
-    pub json: bool,
+    /// The audit as one JSON object: printed instead of text, or written
+    /// to FILE with `--json=FILE`.
+    #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
+    pub json: Option<Option<PathBuf>>,
+    /// The findings as a SARIF 2.1.0 log (for code review and CI): printed,
+    /// or written to FILE with `--sarif=FILE`.
+    #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
+    pub sarif: Option<Option<PathBuf>>,
+    /// The findings as JUnit XML (for CI test reports): printed, or
+    /// written to FILE with `--junit=FILE`.
+    #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
+    pub junit: Option<Option<PathBuf>>,
 }
 
 fn usage(message: String) -> Error {
@@ -70,6 +80,8 @@ fn usage(message: String) -> Error {
 
 /// Run `check`.
 pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
+    let exports = Exports::new(args.json, args.sarif, args.junit)?;
+    let mut inputs = vec![args.input.clone()];
     let mut opt = Options::new();
     opt.views = vision::parse_views(&args.views)?;
     if !(args.viewing_distance.is_finite()
@@ -103,6 +115,7 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
             let fig = crate::figure::load(&args.input)?;
             let scheme = fig.colors.scheme;
             let r = crate::render::render(fig)?;
+            inputs.extend(r.figure.inputs.iter().cloned());
             let classes = &r.encoding.classes;
             opt.muted = classes
                 .iter()
@@ -140,13 +153,9 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
         })
         .or(scheme);
     let report = audit::audit_svg(&args.input, &svg, &opt)?;
-    let stdout = if args.json {
-        let mut s = serde_json::to_string_pretty(&report)
-            .map_err(|e| Error::Internal(format!("serialising the audit: {e}")))?;
-        s.push('\n');
-        s
-    } else {
-        audit::text::render(&report)
+    let stdout = match exports.write(&inputs, &report, opt.fail_on)? {
+        Some(export) => export,
+        None => audit::text::render(&report),
     };
     let mut out = Outcome::success(stdout);
     if !report.passed {
