@@ -470,6 +470,19 @@ fn a_spec_input_points_findings_at_its_colours_and_text_colour() {
     let results = log["runs"][0]["results"].as_array().unwrap();
     assert!(results.iter().any(|r| r["ruleId"] == "HP108"));
     assert!(results.iter().any(|r| r["ruleId"] != "HP108"));
+    // The spec's data is an input too: never overwritten.
+    let data = d.join("data/districts.csv");
+    let before = std::fs::read(&data).unwrap();
+    let e = cli(&[
+        "check",
+        s(&spec),
+        "--dpi",
+        "72",
+        &format!("--json={}", s(&data)),
+    ])
+    .unwrap_err();
+    assert_eq!(e.exit_kind(), ExitKind::BadInput);
+    assert_eq!(std::fs::read(&data).unwrap(), before);
     let (list_line, color_line) = (
         line_of(&text, "list = ["),
         line_of(&text, "color = \"#d8d8d8\""),
@@ -485,4 +498,28 @@ fn a_spec_input_points_findings_at_its_colours_and_text_colour() {
             "{r:#}"
         );
     }
+}
+
+#[test]
+fn repeated_test_case_names_are_numbered() {
+    // Two light captions give two text findings per view, one name.
+    let svg = figure("#dddddd").replace(
+        "</svg>",
+        "<text x=\"90\" y=\"88\" font-size=\"9\" fill=\"#e4e4e4\">more</text>\n</svg>",
+    );
+    let report = report_of(&svg);
+    let a = Audited::new(Path::new("fig.svg"), &report, Anchors::of_svg(&svg));
+    let xml = junit::render(&[a], Severity::Error);
+    let doc = roxmltree::Document::parse(&xml).unwrap();
+    let names: Vec<&str> = doc
+        .descendants()
+        .filter(|n| n.has_tag_name("testcase"))
+        .map(|n| attr(n, "name"))
+        .collect();
+    assert!(names.contains(&"HP108 text [normal]"), "{names:?}");
+    assert!(names.contains(&"HP108 text [normal] #2"), "{names:?}");
+    let mut unique = names.clone();
+    unique.sort();
+    unique.dedup();
+    assert_eq!(unique.len(), names.len(), "{names:?}");
 }

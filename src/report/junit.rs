@@ -14,29 +14,7 @@ use super::audited::Audited;
 use super::sarif::message_with_fix;
 use crate::audit::AuditFinding;
 use crate::findings::Severity;
-
-/// `s` escaped for XML 1.0 character data or (with `attribute`) a
-/// double-quoted attribute value. Characters XML 1.0 does not allow
-/// (most C0 controls) become U+FFFD; in attributes, tabs and line breaks
-/// become character references so parsers keep them.
-pub fn escape(s: &str, attribute: bool) -> String {
-    let mut out = String::with_capacity(s.len());
-    for c in s.chars() {
-        match c {
-            '&' => out.push_str("&amp;"),
-            '<' => out.push_str("&lt;"),
-            '>' => out.push_str("&gt;"),
-            '"' if attribute => out.push_str("&quot;"),
-            '\t' | '\n' | '\r' if attribute => {
-                let _ = write!(out, "&#{};", c as u32);
-            }
-            '\t' | '\n' | '\r' => out.push(c),
-            c if (c as u32) < 0x20 || c == '\u{FFFE}' || c == '\u{FFFF}' => out.push('\u{FFFD}'),
-            c => out.push(c),
-        }
-    }
-    out
-}
+use crate::svg::escape;
 
 fn case_name(f: &AuditFinding) -> String {
     let mut name = format!("{} {} [{}]", f.code, f.kind.name(), f.view);
@@ -81,7 +59,7 @@ pub fn render(inputs: &[Audited], fail_on: Severity) -> String {
     );
     for a in inputs {
         let r = a.report;
-        let path = escape(&a.path, true);
+        let path = escape(&a.path);
         let n_fail = failing(a);
         let _ = writeln!(
             x,
@@ -96,11 +74,7 @@ pub fn render(inputs: &[Audited], fail_on: Severity) -> String {
             ("viewing_distance_cm", r.viewing_distance_cm.to_string()),
             ("fail_on", super::sarif::level(fail_on).to_string()),
         ] {
-            let _ = writeln!(
-                x,
-                "      <property name=\"{k}\" value=\"{}\"/>",
-                escape(&v, true)
-            );
+            let _ = writeln!(x, "      <property name=\"{k}\" value=\"{}\"/>", escape(&v));
         }
         x.push_str("    </properties>\n");
         let _ = write!(
@@ -119,14 +93,11 @@ pub fn render(inputs: &[Audited], fail_on: Severity) -> String {
             let _ = writeln!(
                 x,
                 ">\n      <failure message=\"{}\" type=\"audit\">{}</failure>\n    </testcase>",
-                escape(
-                    &format!(
-                        "{n_fail} finding(s) at or above {}",
-                        super::sarif::level(fail_on)
-                    ),
-                    true
-                ),
-                escape(&(codes.join("\n") + "\n"), false)
+                escape(&format!(
+                    "{n_fail} finding(s) at or above {}",
+                    super::sarif::level(fail_on)
+                )),
+                escape(&(codes.join("\n") + "\n"))
             );
         }
         let mut seen: Vec<String> = Vec::new();
@@ -142,22 +113,18 @@ pub fn render(inputs: &[Audited], fail_on: Severity) -> String {
             let _ = writeln!(
                 x,
                 "    <testcase classname=\"{path}\" name=\"{}\">",
-                escape(&name, true)
+                escape(&name)
             );
             if f.severity >= fail_on {
                 let _ = writeln!(
                     x,
                     "      <failure message=\"{}\" type=\"{}\">{}</failure>",
-                    escape(&f.message, true),
+                    escape(&f.message),
                     f.code,
-                    escape(&details(f), false)
+                    escape(&details(f))
                 );
             } else {
-                let _ = writeln!(
-                    x,
-                    "      <system-out>{}</system-out>",
-                    escape(&details(f), false)
-                );
+                let _ = writeln!(x, "      <system-out>{}</system-out>", escape(&details(f)));
             }
             x.push_str("    </testcase>\n");
         }
@@ -165,19 +132,4 @@ pub fn render(inputs: &[Audited], fail_on: Severity) -> String {
     }
     x.push_str("</testsuites>\n");
     x
-}
-
-#[cfg(test)]
-mod tests {
-    use super::escape;
-
-    #[test]
-    fn escapes_markup_quotes_and_controls() {
-        assert_eq!(escape("a<b & \"c\">", false), "a&lt;b &amp; \"c\"&gt;");
-        assert_eq!(
-            escape("a<b & \"c\"\n", true),
-            "a&lt;b &amp; &quot;c&quot;&#10;"
-        );
-        assert_eq!(escape("x\u{1}y", false), "x\u{FFFD}y");
-    }
 }
