@@ -402,6 +402,22 @@ fn check_writes_exports_to_files_and_keeps_exit_codes() {
     assert_eq!(log["runs"][0]["results"], serde_json::json!([]));
 }
 
+/// `check INPUT --dpi DPI FLAG=TARGET` is refused (exit 2) and TARGET,
+/// an input, is left as it was.
+fn assert_refused_over(input: &Path, dpi: &str, flag: &str, target: &Path) {
+    let before = std::fs::read(target).unwrap();
+    let e = cli(&[
+        "check",
+        s(input),
+        "--dpi",
+        dpi,
+        &format!("{flag}={}", s(target)),
+    ])
+    .unwrap_err();
+    assert_eq!(e.exit_kind(), ExitKind::BadInput, "{e}");
+    assert_eq!(std::fs::read(target).unwrap(), before);
+}
+
 #[test]
 fn check_refuses_unsafe_or_ambiguous_outputs() {
     let d = tmp("refuse");
@@ -425,16 +441,7 @@ fn check_refuses_unsafe_or_ambiguous_outputs() {
     .unwrap_err();
     assert_eq!(e.exit_kind(), ExitKind::BadInput);
     // Never over the input: refused, the input unchanged.
-    let e = cli(&[
-        "check",
-        s(&fig),
-        "--dpi",
-        "48",
-        &format!("--sarif={}", s(&fig)),
-    ])
-    .unwrap_err();
-    assert_eq!(e.exit_kind(), ExitKind::BadInput);
-    assert_eq!(std::fs::read_to_string(&fig).unwrap(), svg);
+    assert_refused_over(&fig, "48", "--sarif", &fig);
     // An unwritable place: exit 3, naming the file.
     let e = cli(&[
         "check",
@@ -471,18 +478,7 @@ fn a_spec_input_points_findings_at_its_colours_and_text_colour() {
     assert!(results.iter().any(|r| r["ruleId"] == "HP108"));
     assert!(results.iter().any(|r| r["ruleId"] != "HP108"));
     // The spec's data is an input too: never overwritten.
-    let data = d.join("data/districts.csv");
-    let before = std::fs::read(&data).unwrap();
-    let e = cli(&[
-        "check",
-        s(&spec),
-        "--dpi",
-        "72",
-        &format!("--json={}", s(&data)),
-    ])
-    .unwrap_err();
-    assert_eq!(e.exit_kind(), ExitKind::BadInput);
-    assert_eq!(std::fs::read(&data).unwrap(), before);
+    assert_refused_over(&spec, "72", "--json", &d.join("data/districts.csv"));
     let (list_line, color_line) = (
         line_of(&text, "list = ["),
         line_of(&text, "color = \"#d8d8d8\""),
