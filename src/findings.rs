@@ -96,6 +96,34 @@ impl Kind {
             Kind::Legend => "legend",
         }
     }
+
+    /// What a finding of this kind means, in one sentence (the table
+    /// above).
+    pub fn meaning(self) -> &'static str {
+        match self {
+            Kind::Blend => "Two classes are too similar to be told apart reliably in a view.",
+            Kind::Fade => "A class does not separate from the background in a view.",
+            Kind::Glare => {
+                "A class stands out by lightness alone in a scheme meant to give classes equal weight."
+            }
+            Kind::Order => {
+                "The lightness of an ordered scheme does not follow the class order in a view."
+            }
+            Kind::Steps => {
+                "The steps between neighbouring classes of an ordered scheme are uneven."
+            }
+            Kind::Midpoint => {
+                "A diverging scheme's midpoint is not neutral and lightest, or its arms are unbalanced."
+            }
+            Kind::Crowd => {
+                "More classes than can stay distinguishable; use fewer classes, labels or small multiples."
+            }
+            Kind::Text => {
+                "Text does not reach the contrast WCAG 2.x SC 1.4.3 asks against what is behind it."
+            }
+            Kind::Legend => "A legend swatch does not look like the marks of its class in a view.",
+        }
+    }
 }
 
 /// One finding.

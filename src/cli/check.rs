@@ -1,5 +1,5 @@
 //! `hueproof check SPEC|FIGURE.svg`: the measured audit of a figure, as
-//! text or JSON, with an exit code a build can act on.
+//! text, JSON, SARIF or JUnit XML, with an exit code a build can act on.
 
 use std::path::PathBuf;
 
@@ -9,6 +9,7 @@ use crate::audit::{self, Options};
 use crate::error::{Error, ExitKind};
 use crate::figure::audit::VIEWING_DISTANCE_RANGE;
 use crate::findings::Severity;
+use crate::report::export::Exports;
 use crate::scheme::SchemeKind;
 use crate::vision;
 
@@ -126,9 +127,18 @@ pub struct CheckArgs {
     /// counts as a class, in square millimetres.
     #[arg(long, default_value_t = 2.0, value_name = "MM2")]
     pub min_class_area: f64,
-    /// Print one JSON object instead of text.
-    #[arg(long)]
-    pub json: bool,
+    /// The audit as one JSON object: printed instead of text, or written
+    /// to FILE with `--json=FILE`.
+    #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
+    pub json: Option<Option<PathBuf>>,
+    /// The findings as a SARIF 2.1.0 log (for code review and CI): printed,
+    /// or written to FILE with `--sarif=FILE`.
+    #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
+    pub sarif: Option<Option<PathBuf>>,
+    /// The findings as JUnit XML (for CI test reports): printed, or
+    /// written to FILE with `--junit=FILE`.
+    #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
+    pub junit: Option<Option<PathBuf>>,
 }
 
 fn usage(message: String) -> Error {
@@ -140,6 +150,8 @@ fn usage(message: String) -> Error {
 
 /// Run `check`.
 pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
+    let exports = Exports::new(args.json, args.sarif, args.junit)?;
+    let mut inputs = vec![args.input.clone()];
     let ext = args
         .input
         .extension()
@@ -148,6 +160,7 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
     let (svg, mut opt, rendered) = match ext.as_deref() {
         Some("toml") => {
             let r = crate::render::render(crate::figure::load(&args.input)?)?;
+            inputs.extend(r.figure.inputs.iter().cloned());
             let opt = audit::settings::for_figure(&r);
             (r.svg.clone(), opt, Some(r))
         }
@@ -186,13 +199,9 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
         report.repair = audit::propose::propose(r, &report, &opt)?;
         extra = audit::propose::describe(r, &report, &opt, report.repair.as_ref());
     }
-    let stdout = if args.json {
-        let mut s = serde_json::to_string_pretty(&report)
-            .map_err(|e| Error::Internal(format!("serialising the audit: {e}")))?;
-        s.push('\n');
-        s
-    } else {
-        audit::text::render_with(&report, &extra)
+    let stdout = match exports.write(&inputs, &report, opt.fail_on)? {
+        Some(export) => export,
+        None => audit::text::render_with(&report, &extra),
     };
     let mut out = Outcome::success(stdout);
     if !report.passed {

@@ -1,0 +1,138 @@
+//! Where the audit's machine-readable exports go: JSON, SARIF and JUnit
+//! XML, each to standard output or to a file written atomically (never
+//! over an input). Owns the routing only; the shapes are in
+//! [`super::sarif`], [`super::junit`] and the serialised
+//! [`crate::audit::Report`].
+
+use std::path::{Path, PathBuf};
+
+use super::audited::{Anchors, Audited};
+use super::{junit, sarif};
+use crate::audit::Report;
+use crate::error::{Error, Result};
+use crate::findings::Severity;
+
+/// The exports asked for: `None` not asked, `Some(None)` (or a file named
+/// `-`) to standard output, `Some(Some(file))` to that file.
+#[derive(Debug, Clone, Default)]
+pub struct Exports {
+    /// The report as one JSON object.
+    pub json: Option<Option<PathBuf>>,
+    /// A SARIF 2.1.0 log.
+    pub sarif: Option<Option<PathBuf>>,
+    /// A JUnit XML document.
+    pub junit: Option<Option<PathBuf>>,
+}
+
+/// The export formats.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+enum Format {
+    Json,
+    Sarif,
+    Junit,
+}
+
+impl Format {
+    fn flag(self) -> &'static str {
+        match self {
+            Format::Json => "--json",
+            Format::Sarif => "--sarif",
+            Format::Junit => "--junit",
+        }
+    }
+}
+
+fn usage(message: String) -> Error {
+    Error::Usage {
+        what: "check".into(),
+        message,
+    }
+}
+
+impl Exports {
+    /// The exports, checked: at most one goes to standard output and no
+    /// two name the same file.
+    pub fn new(
+        json: Option<Option<PathBuf>>,
+        sarif: Option<Option<PathBuf>>,
+        junit: Option<Option<PathBuf>>,
+    ) -> Result<Exports> {
+        let e = Exports { json, sarif, junit };
+        let to_stdout: Vec<&str> = e
+            .asked()
+            .filter(|(_, d)| d.is_none())
+            .map(|(f, _)| f.flag())
+            .collect();
+        if to_stdout.len() > 1 {
+            return Err(usage(format!(
+                "{} would all print to standard output; give all but one a file (e.g. --sarif=audit.sarif)",
+                to_stdout.join(" and ")
+            )));
+        }
+        let files: Vec<(&str, &Path)> = e
+            .asked()
+            .filter_map(|(f, d)| Some((f.flag(), d?)))
+            .collect();
+        for (i, (fa, a)) in files.iter().enumerate() {
+            if let Some((fb, _)) = files[..i].iter().find(|(_, b)| b == a) {
+                return Err(usage(format!(
+                    "{fb} and {fa} both name '{}'; give each its own file",
+                    a.display()
+                )));
+            }
+        }
+        Ok(e)
+    }
+
+    /// (format, destination: None for standard output) of each export
+    /// asked.
+    fn asked(&self) -> impl Iterator<Item = (Format, Option<&Path>)> {
+        [
+            (Format::Json, &self.json),
+            (Format::Sarif, &self.sarif),
+            (Format::Junit, &self.junit),
+        ]
+        .into_iter()
+        .filter_map(|(format, d)| {
+            let d = d.as_ref()?;
+            Some((format, d.as_deref().filter(|p| *p != Path::new("-"))))
+        })
+    }
+
+    /// Write the exports of `report` (the audit of `inputs[0]`, which
+    /// read `inputs`; findings at or above `fail_on` fail). Files are
+    /// written atomically and never over an input; the text of the export
+    /// that goes to standard output is returned (None: none does).
+    pub fn write(
+        &self,
+        inputs: &[PathBuf],
+        report: &Report,
+        fail_on: Severity,
+    ) -> Result<Option<String>> {
+        let input = inputs
+            .first()
+            .ok_or_else(|| Error::Internal("exports of an audit without an input".into()))?;
+        let audited = [Audited::new(input, report, Anchors::read(input))];
+        let mut stdout = None;
+        for (format, dest) in self.asked() {
+            let text = match format {
+                Format::Json => {
+                    let mut s = serde_json::to_string_pretty(report)
+                        .map_err(|e| Error::Internal(format!("serialising the audit: {e}")))?;
+                    s.push('\n');
+                    s
+                }
+                Format::Sarif => sarif::render(&audited)?,
+                Format::Junit => junit::render(&audited, fail_on),
+            };
+            match dest {
+                None => stdout = Some(text),
+                Some(path) => {
+                    crate::output::check_not_an_input(path, inputs)?;
+                    crate::output::write_atomic(path, text.as_bytes())?;
+                }
+            }
+        }
+        Ok(stdout)
+    }
+}
