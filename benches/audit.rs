@@ -196,13 +196,15 @@ fn main() {
     let n = label.classes.ids.len();
     let geometry = measure::geometry(&lab, n, DPI);
     let mut stages: Vec<(&str, Duration)> = Vec::new();
-    let mut add = |name: &'static str, d: Duration| match stages.iter_mut().find(|s| s.0 == name)
-    {
+    let mut add = |name: &'static str, d: Duration| match stages.iter_mut().find(|s| s.0 == name) {
         Some(s) => s.1 = s.1.min(d),
         None => stages.push((name, d)),
     };
     for _ in 0..3 {
-        add("parse (usvg)", time(|| raster::parse(name, svg.as_bytes())).0);
+        add(
+            "parse (usvg)",
+            time(|| raster::parse(name, svg.as_bytes())).0,
+        );
         add("label SVG", time(|| labels::label_svg(name, &svg)).0);
         add(
             "label raster",

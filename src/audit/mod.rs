@@ -190,6 +190,9 @@ pub struct Measured {
     pub text_contrast: Vec<Vec<Option<f64>>>,
 }
 
+/// What text stands on: the non-text pixels of its box grown by this.
+pub const TEXT_MARGIN_PX: usize = 2;
+
 fn rgb8(c: [u8; 3]) -> Srgb {
     Srgb::from_rgb8(c[0], c[1], c[2])
 }
@@ -221,59 +224,39 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
         text_contrast: Vec::new(),
     };
     let boxes = measure::text_boxes(&lab, label.texts.len());
+    // What the measurements read, gathered once; per view only the
+    // distinct colours read are simulated (the same values as simulating
+    // the whole raster: see measure::Palette).
+    let reads = measure::Reads::new(
+        &img.rgba,
+        &lab,
+        &m.geometry,
+        &boxes,
+        TEXT_MARGIN_PX,
+        labels::fill_label(n) as usize,
+    );
     for v in &opt.views {
         let sim = Simulation::new(v.view, opt.model);
-        let mut buf = img.rgba.clone();
-        crate::vision::raster::simulate_rgba8(&sim, img.width as usize, &mut buf);
-        let core = &m.geometry.core;
-        let part = |l: u16| measure::part_color(&buf, &lab, core, l).map(rgb8);
+        let seen = reads.palette.simulate(&sim);
+        let part = |l: u16| reads.part(&seen, l).map(rgb8);
         let background = part(labels::BACKGROUND).unwrap_or(sim.apply(bg));
         m.colors
             .push((0..n).map(|k| part(labels::fill_label(k))).collect());
         m.swatches
             .push((0..n).map(|k| part(labels::swatch_label(k))).collect());
-        let lum = |i: usize| {
-            crate::color::wcag::relative_luminance(Srgb::from_rgb8(
-                buf[4 * i],
-                buf[4 * i + 1],
-                buf[4 * i + 2],
-            ))
-        };
         let lb = crate::color::wcag::relative_luminance(background);
-        m.boundary.push(
-            m.geometry
-                .crossings
-                .iter()
-                .map(|cs| {
-                    if cs.is_empty() {
-                        return None;
-                    }
-                    let per: Vec<f64> = cs
-                        .iter()
-                        .map(|run| {
-                            run.iter()
-                                .map(|&i| {
-                                    crate::color::wcag::contrast_ratio_of_luminances(lum(i), lb)
-                                })
-                                .fold(1.0, f64::max)
-                        })
-                        .collect();
-                    Some(measure::median(per))
-                })
-                .collect(),
-        );
+        m.boundary.push(reads.boundary(&seen, lb));
         m.text_contrast.push(
             boxes
                 .iter()
                 .zip(&m.texts)
-                .map(|(bx, t)| {
-                    let b = (*bx)?;
-                    let around = measure::around_text(&buf, &lab, b, 2)?;
+                .enumerate()
+                .map(|(j, (bx, t))| {
+                    bx.as_ref()?;
+                    let around = reads.around(&seen, j)?;
                     let fg = match t.fill {
                         Some(f) => sim.apply(f),
-                        None => rgb8(measure::median_rgb(&buf, |i| {
-                            lab.ids[i] >= labels::TEXT_BASE
-                        })?),
+                        None => rgb8(reads.text(&seen)?),
                     };
                     Some(crate::color::wcag::contrast_ratio(fg, rgb8(around)))
                 })
