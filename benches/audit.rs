@@ -22,7 +22,7 @@
 use std::path::{Path, PathBuf};
 use std::time::{Duration, Instant};
 
-use hueproof::audit::{self, Options, labels, measure};
+use hueproof::audit::{self, Options, TEXT_MARGIN_PX, labels, measure};
 use hueproof::color::Srgb;
 use hueproof::geo::generate::Grid;
 use hueproof::random::SplitMix64;
@@ -164,13 +164,19 @@ fn main() {
     assert!(report.contacts.len() >= CLASSES - 1, "the classes touch");
 
     // Interleaved so that a change in machine load hits both alike.
-    let (mut tr, mut ta) = (vec![], vec![]);
+    let one = rayon::ThreadPoolBuilder::new()
+        .num_threads(1)
+        .build()
+        .unwrap();
+    let (mut tr, mut ta, mut t1) = (vec![], vec![], vec![]);
     for _ in 0..RUNS {
         tr.push(time(|| std::hint::black_box(rasterise())).0);
         ta.push(time(|| std::hint::black_box(run_audit())).0);
+        t1.push(one.install(|| time(|| std::hint::black_box(run_audit())).0));
     }
     let (r_med, r_min) = stats(tr);
     let (a_med, a_min) = stats(ta);
+    let (a1_med, a1_min) = stats(t1);
     println!(
         "  {:<34} {:>10} {:>10} {:>12} {:>10}",
         "", "median ms", "min ms", "ratio(med)", "ratio(min)"
@@ -178,6 +184,7 @@ fn main() {
     for (label, med, min) in [
         ("resvg raster (baseline)", r_med, r_min),
         ("full audit, 5 views", a_med, a_min),
+        ("full audit, one thread", a1_med, a1_min),
     ] {
         println!(
             "  {label:<34} {:>10.1} {:>10.1} {:>12.2} {:>10.2}",
@@ -212,8 +219,26 @@ fn main() {
         );
         add("geometry", time(|| measure::geometry(&lab, n, DPI)).0);
         add("core mask", time(|| lab.core()).0);
+        let boxes = measure::text_boxes(&lab, label.texts.len());
+        let parts = labels::fill_label(n) as usize;
+        let (t, reads) =
+            time(|| measure::Reads::new(&img.rgba, &lab, &geometry, &boxes, TEXT_MARGIN_PX, parts));
+        add("reads (pixels the views read)", t);
         add(
-            "whole-raster simulation x 4",
+            "5 views from the reads",
+            time(|| {
+                for v in &opt.views {
+                    let seen = reads.palette.simulate(&Simulation::new(v.view, opt.model));
+                    for l in 0..parts as u16 {
+                        std::hint::black_box(reads.part(&seen, l));
+                    }
+                    std::hint::black_box(reads.boundary(&seen, 0.5));
+                }
+            })
+            .0,
+        );
+        add(
+            "(whole-raster simulation x 4)",
             time(|| {
                 for v in opt.views.iter().skip(1) {
                     let sim = Simulation::new(v.view, opt.model);
@@ -226,7 +251,10 @@ fn main() {
         );
     }
     std::hint::black_box(&geometry);
-    println!("  stages (best of 3, each on its own; ratio to the raster's best):");
+    println!(
+        "  stages (best of 3, each on its own, default pool; ratio to the raster's best; \
+         the last is what the audit no longer does):"
+    );
     for (s, d) in stages {
         println!("    {s:<32} {:>8.1} ms {:>6.2}", ms(d), ratio(d, r_min));
     }

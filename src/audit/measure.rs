@@ -43,8 +43,16 @@ pub fn geometry(l: &Labels, classes: usize, dpi: f64) -> Geometry {
         Part::Fill(k) if k < classes => Some(k),
         _ => None,
     };
-    let dist = chamfer(l);
-    let sizes = components(l, &dist, classes, &fill_of);
+    // Three independent parts, side by side.
+    let ((sizes, core), (contacts, crossings)) = rayon::join(
+        || {
+            rayon::join(
+                || components(l, &chamfer(l), classes, &fill_of),
+                || l.core(),
+            )
+        },
+        || transitions(l, classes, max_gap(dpi), &fill_of),
+    );
     let area = sizes
         .iter()
         .map(|r| r.iter().map(|(n, _)| n).sum())
@@ -62,14 +70,13 @@ pub fn geometry(l: &Labels, classes: usize, dpi: f64) -> Geometry {
             median(if big.is_empty() { all } else { big })
         })
         .collect();
-    let (contacts, crossings) = transitions(l, classes, max_gap(dpi), &fill_of);
     Geometry {
         area,
         regions,
         size_px,
         contacts,
         crossings,
-        core: l.core(),
+        core,
     }
 }
 
@@ -522,8 +529,10 @@ pub fn median_of_counts(seen: &Seen, counts: &[(u32, usize)]) -> Option<[u8; 3]>
 pub struct Reads {
     /// The distinct colours read.
     pub palette: Palette,
-    /// Per label below the `parts` limit given to [`Reads::new`]: its core
-    /// pixels, or all its pixels when it has no core pixel.
+    /// Per label below the `parts` limit given to [`Reads::new`] (the
+    /// background, marks and swatches; empty for borders, text and other
+    /// drawing): its core pixels, or all its pixels when it has no core
+    /// pixel.
     parts: Vec<Counts>,
     /// Every text pixel (any text element).
     text: Counts,
@@ -551,8 +560,16 @@ impl Reads {
         let mut palette = Palette::new(w * h);
         let mut core: Vec<Tally> = (0..parts).map(|_| Tally::default()).collect();
         let mut text = Tally::default();
+        // Borders, text and other drawing (labels 1 to 3) are not measured.
+        let measured = |id: u16| {
+            (id as usize) < parts
+                && matches!(
+                    labels::part(id),
+                    Part::Background | Part::Fill(_) | Part::Swatch(_)
+                )
+        };
         for (i, (&id, &c)) in l.ids.iter().zip(&g.core).enumerate() {
-            if (id as usize) < parts {
+            if measured(id) {
                 if c {
                     core[id as usize].add(palette.slot(rgba, i));
                 }
@@ -562,7 +579,9 @@ impl Reads {
         }
         let mut parts_counts: Vec<Counts> = core.into_iter().map(Tally::finish).collect();
         // Labels without core pixels (marks under 3 px): all their pixels.
-        let bare: Vec<bool> = parts_counts.iter().map(Vec::is_empty).collect();
+        let bare: Vec<bool> = (0..parts)
+            .map(|k| parts_counts[k].is_empty() && measured(k as u16))
+            .collect();
         if bare.iter().any(|&b| b) {
             let mut all: Vec<Tally> = (0..parts).map(|_| Tally::default()).collect();
             for (i, &id) in l.ids.iter().enumerate() {
@@ -611,8 +630,9 @@ impl Reads {
         }
     }
 
-    /// The robust colour of label `label` in a view: the median of its
-    /// core pixels, or of all its pixels when it has no core.
+    /// The robust colour of label `label` (the background, a class's marks
+    /// or its swatch) in a view: the median of its core pixels, or of all
+    /// its pixels when it has no core.
     pub fn part(&self, seen: &Seen, label: u16) -> Option<[u8; 3]> {
         median_of_counts(seen, self.parts.get(label as usize)?)
     }

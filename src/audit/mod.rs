@@ -200,12 +200,23 @@ fn rgb8(c: [u8; 3]) -> Srgb {
 /// Audit the SVG text `svg` (`name` names it in messages).
 pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
     let label = labels::label_svg(name, svg_text)?;
-    let doc = raster::parse(name, svg_text.as_bytes())?;
     let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
-    let img = raster::render(name, &doc, opt.dpi, bg)?;
-    let lab = labels::render_labels(name, &label, opt.dpi)?;
     let n = label.classes.ids.len();
-    let geometry = measure::geometry(&lab, n, opt.dpi);
+    // The figure's raster and the label raster with its geometry are
+    // independent: made side by side (errors reported in that order).
+    let (img, labelled) = rayon::join(
+        || {
+            let doc = raster::parse(name, svg_text.as_bytes())?;
+            raster::render(name, &doc, opt.dpi, bg)
+        },
+        || {
+            let lab = labels::render_labels(name, &label, opt.dpi)?;
+            let geometry = measure::geometry(&lab, n, opt.dpi);
+            Ok::<_, crate::error::Error>((lab, geometry))
+        },
+    );
+    let img = img?;
+    let (lab, geometry) = labelled?;
     let dist_mm = opt.viewing_distance_cm * 10.0;
     let angle_deg: Vec<f64> = geometry
         .size_px
