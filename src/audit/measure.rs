@@ -273,49 +273,50 @@ fn chamfer(l: &Labels) -> Vec<u32> {
             }
         }
     }
-    // Forward: left, up-left, up, up-right.
-    for y in 0..h {
+    // Forward: up, up-left, up-right, then left; backward: down,
+    // down-right, down-left, then right (row by row; the order of the
+    // minima within a row does not matter, the sweep along it does).
+    for x in 1..w.min(d.len()) {
+        d[x] = d[x].min(d[x - 1] + 3);
+    }
+    for y in 1..h {
         let (done, rest) = d.split_at_mut(y * w);
         let cur = &mut rest[..w];
-        if y > 0 {
-            let up = &done[(y - 1) * w..];
-            for x in 0..w {
-                let mut v = cur[x].min(up[x] + 3);
-                if x > 0 {
-                    v = v.min(up[x - 1] + 4);
-                }
-                if x + 1 < w {
-                    v = v.min(up[x + 1] + 4);
-                }
-                cur[x] = v;
-            }
-        }
+        from_row(cur, &done[(y - 1) * w..]);
         for x in 1..w {
             cur[x] = cur[x].min(cur[x - 1] + 3);
         }
     }
-    // Backward: right, down-right, down, down-left.
-    for y in (0..h).rev() {
+    if h > 0 {
+        let last = &mut d[(h - 1) * w..];
+        for x in (0..w - 1).rev() {
+            last[x] = last[x].min(last[x + 1] + 3);
+        }
+    }
+    for y in (0..h.saturating_sub(1)).rev() {
         let (head, below) = d.split_at_mut((y + 1) * w);
         let cur = &mut head[y * w..];
-        if y + 1 < h {
-            let down = &below[..w];
-            for x in 0..w {
-                let mut v = cur[x].min(down[x] + 3);
-                if x + 1 < w {
-                    v = v.min(down[x + 1] + 4);
-                }
-                if x > 0 {
-                    v = v.min(down[x - 1] + 4);
-                }
-                cur[x] = v;
-            }
-        }
+        from_row(cur, &below[..w]);
         for x in (0..w - 1).rev() {
             cur[x] = cur[x].min(cur[x + 1] + 3);
         }
     }
     d
+}
+
+/// One chamfer step from the neighbouring row `nb` into the row `cur`:
+/// straight (3) and diagonal (4) neighbours.
+fn from_row(cur: &mut [u32], nb: &[u32]) {
+    let w = cur.len();
+    for (c, &n) in cur.iter_mut().zip(&nb[..w]) {
+        *c = (*c).min(n + 3);
+    }
+    for (c, &n) in cur[1..].iter_mut().zip(&nb[..w - 1]) {
+        *c = (*c).min(n + 4);
+    }
+    for (c, &n) in cur[..w - 1].iter_mut().zip(&nb[1..w]) {
+        *c = (*c).min(n + 4);
+    }
 }
 
 /// The pixel bounding box `[x0, y0, x1, y1]` (inclusive) of each of `n`
@@ -474,14 +475,14 @@ struct Tally {
 
 impl Tally {
     #[inline]
-    fn add(&mut self, slot: u32) {
+    fn add(&mut self, slot: u32, pixels: usize) {
         match &mut self.run {
-            Some((s, n)) if *s == slot => *n += 1,
+            Some((s, n)) if *s == slot => *n += pixels,
             run => {
                 if let Some((s, n)) = run.take() {
                     *self.counts.entry(s).or_insert(0) += n;
                 }
-                *run = Some((slot, 1));
+                *run = Some((slot, pixels));
             }
         }
     }
@@ -568,14 +569,40 @@ impl Reads {
                     Part::Background | Part::Fill(_) | Part::Swatch(_)
                 )
         };
-        for (i, (&id, &c)) in l.ids.iter().zip(&g.core).enumerate() {
+        // Runs of pixels alike in label, core and colour are counted at
+        // once (a run never crosses into the raster's last pixels, whose
+        // colours are kept apart).
+        let tail_from = palette.tail_from;
+        let mut add = |start: usize, len: usize, id: u16, c: bool| {
             if measured(id) {
                 if c {
-                    core[id as usize].add(palette.slot(rgba, i));
+                    core[id as usize].add(palette.slot(rgba, start), len);
                 }
             } else if id >= labels::TEXT_BASE {
-                text.add(palette.slot(rgba, i));
+                text.add(palette.slot(rgba, start), len);
             }
+        };
+        let mut run: Option<(usize, u16, bool, u32)> = None;
+        for (i, ((&id, &c), px)) in l
+            .ids
+            .iter()
+            .zip(&g.core)
+            .zip(rgba.chunks_exact(4))
+            .enumerate()
+        {
+            let word = u32::from_le_bytes([px[0], px[1], px[2], px[3]]);
+            match run {
+                Some((_, rid, rc, rw)) if rid == id && rc == c && rw == word && i != tail_from => {}
+                _ => {
+                    if let Some((start, rid, rc, _)) = run {
+                        add(start, i - start, rid, rc);
+                    }
+                    run = Some((i, id, c, word));
+                }
+            }
+        }
+        if let Some((start, rid, rc, _)) = run {
+            add(start, l.ids.len() - start, rid, rc);
         }
         let mut parts_counts: Vec<Counts> = core.into_iter().map(Tally::finish).collect();
         // Labels without core pixels (marks under 3 px): all their pixels.
@@ -586,7 +613,7 @@ impl Reads {
             let mut all: Vec<Tally> = (0..parts).map(|_| Tally::default()).collect();
             for (i, &id) in l.ids.iter().enumerate() {
                 if (id as usize) < parts && bare[id as usize] {
-                    all[id as usize].add(palette.slot(rgba, i));
+                    all[id as usize].add(palette.slot(rgba, i), 1);
                 }
             }
             for (k, t) in all.into_iter().enumerate() {
@@ -605,7 +632,7 @@ impl Reads {
                 for y in y0..=y1 {
                     for i in y * w + x0..=y * w + x1 {
                         if l.ids[i] < labels::TEXT_BASE {
-                            t.add(palette.slot(rgba, i));
+                            t.add(palette.slot(rgba, i), 1);
                         }
                     }
                 }
