@@ -3,7 +3,9 @@
 //! long their shared edges are, the crossings from each class to the
 //! background, and per view the robust colour of each class, swatch and
 //! the background (per-channel median of core pixels of the simulated
-//! raster).
+//! raster). Per view only the distinct colours the measurements read are
+//! simulated ([`Palette`], [`Reads`]): the same values as reading the
+//! whole simulated raster, at a fraction of the cost.
 
 use super::labels::{self, Labels, Part};
 use crate::color::Srgb;
