@@ -698,20 +698,33 @@ impl Labels {
     /// image) carries the same label. The rest are edge pixels.
     pub fn core(&self) -> Vec<bool> {
         let (w, h) = (self.width as usize, self.height as usize);
+        if w == 0 {
+            return Vec::new();
+        }
+        // A pixel's row of three (inside the image) carries its label.
+        let mut flat = vec![false; w * h];
+        for (ids, out) in self.ids.chunks_exact(w).zip(flat.chunks_exact_mut(w)) {
+            for x in 0..w {
+                let l = ids[x];
+                out[x] = (x == 0 || ids[x - 1] == l) && (x + 1 == w || ids[x + 1] == l);
+            }
+        }
+        // And so do the rows of three above and below, with the same label.
         let mut core = vec![false; w * h];
         for y in 0..h {
-            for x in 0..w {
-                let l = self.ids[y * w + x];
-                let mut same = true;
-                'n: for yy in y.saturating_sub(1)..(y + 2).min(h) {
-                    for xx in x.saturating_sub(1)..(x + 2).min(w) {
-                        if self.ids[yy * w + xx] != l {
-                            same = false;
-                            break 'n;
-                        }
-                    }
+            let i = y * w;
+            let (ids, f) = (&self.ids[i..i + w], &flat[i..i + w]);
+            let out = &mut core[i..i + w];
+            out.copy_from_slice(f);
+            for dy in [y.checked_sub(1), (y + 1 < h).then_some(y + 1)]
+                .into_iter()
+                .flatten()
+            {
+                let j = dy * w;
+                let (nids, nf) = (&self.ids[j..j + w], &flat[j..j + w]);
+                for x in 0..w {
+                    out[x] &= nf[x] && nids[x] == ids[x];
                 }
-                core[y * w + x] = same;
             }
         }
         core

@@ -207,6 +207,9 @@ pub struct Measured {
     pub text_contrast: Vec<Vec<Option<f64>>>,
 }
 
+/// What text stands on: the non-text pixels of its box grown by this.
+pub const TEXT_MARGIN_PX: usize = 2;
+
 fn rgb8(c: [u8; 3]) -> Srgb {
     Srgb::from_rgb8(c[0], c[1], c[2])
 }
@@ -214,15 +217,29 @@ fn rgb8(c: [u8; 3]) -> Srgb {
 /// Audit the SVG text `svg` (`name` names it in messages).
 pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
     let mut label = labels::label_svg(name, svg_text)?;
-    let doc = raster::parse(name, svg_text.as_bytes())?;
     let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
-    let img = raster::render(name, &doc, opt.dpi, bg)?;
-    let mut lab = labels::render_labels(name, &label, opt.dpi)?;
     let px_per_mm = opt.dpi / 25.4;
     let min_area = (opt.min_class_area_mm2 * px_per_mm * px_per_mm).ceil() as usize;
-    detect::settle_detected(&mut label, &mut lab, min_area.max(1), opt.scheme);
+    // The figure's raster and the label raster with its geometry are
+    // independent: made side by side (errors reported in that order).
+    // Classes detected from fills (SVG from other tools) are settled on
+    // the label raster before its geometry is measured.
+    let label_ref = &mut label;
+    let (img, labelled) = rayon::join(
+        || {
+            let doc = raster::parse(name, svg_text.as_bytes())?;
+            raster::render(name, &doc, opt.dpi, bg)
+        },
+        move || {
+            let mut lab = labels::render_labels(name, label_ref, opt.dpi)?;
+            detect::settle_detected(label_ref, &mut lab, min_area.max(1), opt.scheme);
+            let geometry = measure::geometry(&lab, label_ref.classes.ids.len(), opt.dpi);
+            Ok::<_, crate::error::Error>((lab, geometry))
+        },
+    );
+    let img = img?;
+    let (lab, geometry) = labelled?;
     let n = label.classes.ids.len();
-    let geometry = measure::geometry(&lab, n, opt.dpi);
     let dist_mm = opt.viewing_distance_cm * 10.0;
     let angle_deg: Vec<f64> = geometry
         .size_px
@@ -241,59 +258,39 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
         text_contrast: Vec::new(),
     };
     let boxes = measure::text_boxes(&lab, label.texts.len());
+    // What the measurements read, gathered once; per view only the
+    // distinct colours read are simulated (the same values as simulating
+    // the whole raster: see measure::Palette).
+    let reads = measure::Reads::new(
+        &img.rgba,
+        &lab,
+        &m.geometry,
+        &boxes,
+        TEXT_MARGIN_PX,
+        labels::fill_label(n) as usize,
+    );
     for v in &opt.views {
         let sim = Simulation::new(v.view, opt.model);
-        let mut buf = img.rgba.clone();
-        crate::vision::raster::simulate_rgba8(&sim, img.width as usize, &mut buf);
-        let core = &m.geometry.core;
-        let part = |l: u16| measure::part_color(&buf, &lab, core, l).map(rgb8);
+        let seen = reads.palette.simulate(&sim);
+        let part = |l: u16| reads.part(&seen, l).map(rgb8);
         let background = part(labels::BACKGROUND).unwrap_or(sim.apply(bg));
         m.colors
             .push((0..n).map(|k| part(labels::fill_label(k))).collect());
         m.swatches
             .push((0..n).map(|k| part(labels::swatch_label(k))).collect());
-        let lum = |i: usize| {
-            crate::color::wcag::relative_luminance(Srgb::from_rgb8(
-                buf[4 * i],
-                buf[4 * i + 1],
-                buf[4 * i + 2],
-            ))
-        };
         let lb = crate::color::wcag::relative_luminance(background);
-        m.boundary.push(
-            m.geometry
-                .crossings
-                .iter()
-                .map(|cs| {
-                    if cs.is_empty() {
-                        return None;
-                    }
-                    let per: Vec<f64> = cs
-                        .iter()
-                        .map(|run| {
-                            run.iter()
-                                .map(|&i| {
-                                    crate::color::wcag::contrast_ratio_of_luminances(lum(i), lb)
-                                })
-                                .fold(1.0, f64::max)
-                        })
-                        .collect();
-                    Some(measure::median(per))
-                })
-                .collect(),
-        );
+        m.boundary.push(reads.boundary(&seen, lb));
         m.text_contrast.push(
             boxes
                 .iter()
                 .zip(&m.texts)
-                .map(|(bx, t)| {
-                    let b = (*bx)?;
-                    let around = measure::around_text(&buf, &lab, b, 2)?;
+                .enumerate()
+                .map(|(j, (bx, t))| {
+                    bx.as_ref()?;
+                    let around = reads.around(&seen, j)?;
                     let fg = match t.fill {
                         Some(f) => sim.apply(f),
-                        None => rgb8(measure::median_rgb(&buf, |i| {
-                            lab.ids[i] >= labels::TEXT_BASE
-                        })?),
+                        None => rgb8(reads.text(&seen)?),
                     };
                     Some(crate::color::wcag::contrast_ratio(fg, rgb8(around)))
                 })
