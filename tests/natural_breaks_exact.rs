@@ -58,3 +58,29 @@ proptest! {
         );
     }
 }
+
+/// Every class count from 1 to the number of distinct values, on small
+/// tie-heavy inputs: k = 2 (the pruned layer is the first one computed),
+/// k = 3 (one full layer before it), k = m - 1 and k = m (every distinct
+/// value alone), against the plain programme of Fisher (1958) above.
+#[test]
+fn every_class_count_equals_plain_programme() {
+    for (seed, n, step) in [(3u64, 40usize, 1.0f64), (11, 60, 0.05), (29, 25, 5.0)] {
+        let sample = Sample::new(values(seed, n, step), 0).unwrap();
+        let (u, w) = fisher_jenks::unique_weighted(sample.sorted());
+        let sdam = common::plain_fisher_programme(sample.sorted(), 1);
+        for k in 1..=u.len() {
+            let ends = fisher_jenks::optimal_ends(&u, &w, k);
+            assert_eq!(ends.len(), k);
+            assert!(ends.windows(2).all(|e| e[0] < e[1]));
+            assert_eq!(ends[k - 1], u.len());
+            let got = fisher_jenks::partition_cost(&u, &w, &ends);
+            let want = common::plain_fisher_programme(sample.sorted(), k);
+            assert!(
+                (got - want).abs() <= 1e-9 * sdam.max(1.0),
+                "seed {seed}, k {k} of {}: cost {got}, plain programme {want}",
+                u.len()
+            );
+        }
+    }
+}
