@@ -147,34 +147,26 @@ fn generated_sequential_palettes_pass_the_audit_drawn_as_choropleths() {
 
 #[test]
 fn generated_qualitative_and_diverging_palettes_pass_the_audit() {
-    // The demo's land use has five categories.
-    let q = json(&[
-        "palette",
-        "make",
-        "--scheme",
-        "qualitative",
-        "--classes",
-        "5",
-        "--format",
-        "json",
-    ]);
-    let spec = spec_with("qual-5", "categories-map", &colors(&q), None);
-    let (kind, v) = check(&spec);
-    assert_eq!(kind, ExitKind::Success, "{:?}", codes(&v));
-    // The diverging template: six classes around a midpoint break.
-    let d = json(&[
-        "palette",
-        "make",
-        "--scheme",
-        "diverging",
-        "--classes",
-        "6",
-        "--format",
-        "json",
-    ]);
-    let spec = spec_with("div-6", "diverging-map", &colors(&d), None);
-    let (kind, v) = check(&spec);
-    assert_eq!(kind, ExitKind::Success, "{:?}", codes(&v));
+    // The demo's land use has five categories; the diverging template has
+    // six classes around a midpoint break.
+    for (scheme, n, template) in [
+        ("qualitative", "5", "categories-map"),
+        ("diverging", "6", "diverging-map"),
+    ] {
+        let p = json(&[
+            "palette",
+            "make",
+            "--scheme",
+            scheme,
+            "--classes",
+            n,
+            "--format",
+            "json",
+        ]);
+        let spec = spec_with(&format!("{scheme}-{n}"), template, &colors(&p), None);
+        let (kind, v) = check(&spec);
+        assert_eq!(kind, ExitKind::Success, "{scheme}: {:?}", codes(&v));
+    }
 }
 
 #[test]
