@@ -17,4 +17,10 @@ unset IFS
 # The demo figures: data, templates, SVG and PNG (tests/sample_output.rs
 # checks that these files are what the current code renders).
 "$bin" demo --out sample-output > /dev/null
+# A figure that fails the audit on purpose, in every report form
+# (tests/sample_output.rs checks these too). check exits 1 on it.
+a=sample-output/audit/clashing-colours
+"$bin" check "$a.toml" > "$a.check.txt" || true
+"$bin" check "$a.toml" --json="$a.check.json" --sarif="$a.sarif" --junit="$a.junit.xml" > /dev/null || true
+"$bin" render "$a.toml" -o "$a-repaired.svg" --repair > "$a-repaired.txt"
 echo "sample-output rebuilt"

@@ -4,6 +4,8 @@
 //! small tolerance (the same renderer on another CPU may round a few edge
 //! pixels differently). Rebuild with `sh sample-output/rebuild.sh`.
 
+mod common;
+
 use std::path::{Path, PathBuf};
 
 fn decode(p: &Path) -> (u32, u32, Vec<u8>) {
@@ -52,6 +54,48 @@ fn sample_output_matches_a_fresh_demo() {
                 rel.display()
             );
         }
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn the_committed_audit_samples_match_a_fresh_check() {
+    // Run from the package root (as cargo runs tests), so the input path
+    // written into the SARIF and JUnit files is the same relative one.
+    let spec = "sample-output/audit/clashing-colours.toml";
+    let committed = |ext: &str| {
+        std::fs::read_to_string(format!("sample-output/audit/clashing-colours{ext}")).unwrap()
+    };
+    let run = |args: &[&str]| common::cli(args).unwrap();
+    let text = run(&["check", spec]);
+    assert_eq!(text.kind, hueproof::ExitKind::Findings);
+    assert!(
+        text.stdout == committed(".check.txt"),
+        "sample-output/audit/clashing-colours.check.txt differs; run sh sample-output/rebuild.sh"
+    );
+    let dir = std::env::temp_dir().join(format!("hueproof-sample-audit-{}", std::process::id()));
+    let _ = std::fs::remove_dir_all(&dir);
+    std::fs::create_dir_all(&dir).unwrap();
+    let out = |name: &str| dir.join(name).to_str().unwrap().to_string();
+    let (json, sarif, junit, svg) = (out("a.json"), out("a.sarif"), out("a.xml"), out("r.svg"));
+    run(&[
+        "check",
+        spec,
+        &format!("--json={json}"),
+        &format!("--sarif={sarif}"),
+        &format!("--junit={junit}"),
+    ]);
+    run(&["render", spec, "-o", &svg, "--repair"]);
+    for (fresh, ext) in [
+        (json, ".check.json"),
+        (sarif, ".sarif"),
+        (junit, ".junit.xml"),
+        (svg, "-repaired.svg"),
+    ] {
+        assert!(
+            std::fs::read_to_string(&fresh).unwrap() == committed(ext),
+            "sample-output/audit/clashing-colours{ext} differs; run sh sample-output/rebuild.sh"
+        );
     }
     let _ = std::fs::remove_dir_all(&dir);
 }

@@ -417,12 +417,19 @@ pub fn judge(m: &Measured, opt: &Options) -> Vec<AuditFinding> {
                                 m.ids[a], m.ids[b], step, v.name, min_step, t.p_apart
                             )
                         },
-                        Some(format!(
-                            "move {} to a lightness {} (or move {} instead)",
-                            m.ids[if reversal || prev.is_some() { a } else { b }],
-                            if reversal || prev.is_some() { target } else { format!("{:.0} L* further from {}", min_step - step + 1.0, m.ids[a]) },
-                            m.ids[b]
-                        )),
+                        {
+                            let first = reversal || prev.is_some();
+                            let (mover, other) = if first { (a, b) } else { (b, a) };
+                            let to = if first {
+                                target
+                            } else {
+                                format!("{:.0} L* further from {}", min_step - step + 1.0, m.ids[a])
+                            };
+                            Some(format!(
+                                "move {} to a lightness {to} (or move {} instead)",
+                                m.ids[mover], m.ids[other]
+                            ))
+                        },
                     );
                 }
             }
