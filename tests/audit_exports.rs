@@ -190,6 +190,7 @@ fn a_passing_audit_is_a_valid_log_with_no_results() {
         contacts: Vec::new(),
         findings: Vec::new(),
         repair: None,
+        refused_references: Vec::new(),
     };
     let a = Audited::new(Path::new("ok.svg"), &report, Anchors::default());
     let log: serde_json::Value = serde_json::from_str(&sarif::render(&[a]).unwrap()).unwrap();

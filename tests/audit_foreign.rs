@@ -208,3 +208,64 @@ fn text_and_strokes_of_another_tool_are_text_and_borders() {
     assert_eq!(texts.len(), 5, "{:?}", flagged(&r));
     assert!((texts[0].measured - 4.48).abs() < 0.01, "{:?}", texts[0]);
 }
+
+#[test]
+fn untrusted_svg_reads_no_outside_file_and_refuses_huge_or_deep_documents() {
+    // A real local PNG, bright red, that the document points at by path
+    // and by file URL, beside an address: none may be read, so no red
+    // appears in the measurements and each reference is reported.
+    let dir = std::env::temp_dir().join(format!("hueproof-untrusted-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let png = dir.join("red.png");
+    {
+        let f = std::fs::File::create(&png).unwrap();
+        let mut e = png::Encoder::new(std::io::BufWriter::new(f), 2, 2);
+        e.set_color(png::ColorType::Rgb);
+        e.write_header()
+            .unwrap()
+            .write_image_data(&[255, 0, 0].repeat(4))
+            .unwrap();
+    }
+    let path = png.to_str().unwrap();
+    let svg = page(
+        200,
+        100,
+        &format!(
+            r##"<rect fill="#3060a0" x="10" y="10" width="80" height="80"/>
+<image href="{path}" x="100" y="10" width="40" height="40"/>
+<image href="file://{path}" x="140" y="10" width="40" height="40"/>
+<image href="https://example.invalid/tile.png" x="100" y="50" width="40" height="40"/>"##
+        ),
+    );
+    let r = audit(&svg, 48.0, None);
+    assert_eq!(ids(&r), ["#3060a0"]);
+    assert_eq!(r.refused_references.len(), 3, "{:?}", r.refused_references);
+    assert!(
+        r.refused_references
+            .iter()
+            .any(|h| h.starts_with("https://"))
+    );
+    let _ = std::fs::remove_dir_all(&dir);
+    // Elements nested 300 deep: a clear error, not a stack overflow.
+    let deep = page(
+        100,
+        100,
+        &format!(
+            "{}<rect fill=\"#3060a0\" width=\"50\" height=\"50\"/>{}",
+            "<g>".repeat(300),
+            "</g>".repeat(300)
+        ),
+    );
+    let mut opt = Options::new();
+    opt.dpi = 48.0;
+    let e = audit::audit_svg(Path::new("deep.svg"), &deep, &opt).unwrap_err();
+    assert_eq!(e.exit_kind(), hueproof::ExitKind::BadInput);
+    assert!(e.to_string().contains("deep.svg"), "{e}");
+    // A declared size of 10 metres square at 300 dpi: refused before any
+    // pixel is allocated, naming the size.
+    let huge = r##"<svg xmlns="http://www.w3.org/2000/svg" width="10000mm" height="10000mm" viewBox="0 0 10 10"><rect fill="#3060a0" width="5" height="5"/></svg>"##;
+    opt.dpi = 300.0;
+    let e = audit::audit_svg(Path::new("huge.svg"), huge, &opt).unwrap_err();
+    assert_eq!(e.exit_kind(), hueproof::ExitKind::BadInput);
+    assert!(e.to_string().contains("pixels"), "{e}");
+}

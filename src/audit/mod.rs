@@ -171,6 +171,10 @@ pub struct Report {
     /// checked by drawing and auditing the figure again.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub repair: Option<propose::Proposal>,
+    /// References to outside files or addresses that were left out, never
+    /// read (SVG is untrusted): what is drawn there was not audited.
+    #[serde(skip_serializing_if = "Vec::is_empty")]
+    pub refused_references: Vec<String>,
 }
 
 /// Two classes that touch on the figure.
@@ -228,7 +232,7 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
     let (img, labelled) = rayon::join(
         || {
             let doc = raster::parse(name, svg_text.as_bytes())?;
-            raster::render(name, &doc, opt.dpi, bg)
+            raster::render(name, &doc, opt.dpi, bg).map(|img| (img, doc.refused))
         },
         move || {
             let mut lab = labels::render_labels(name, label_ref, opt.dpi)?;
@@ -237,7 +241,7 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
             Ok::<_, crate::error::Error>((lab, geometry))
         },
     );
-    let img = img?;
+    let (img, refused) = img?;
     let (lab, geometry) = labelled?;
     let n = label.classes.ids.len();
     let dist_mm = opt.viewing_distance_cm * 10.0;
@@ -342,5 +346,6 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
         contacts,
         findings,
         repair: None,
+        refused_references: refused,
     })
 }

@@ -207,6 +207,12 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
     if !report.passed {
         out.kind = ExitKind::Findings;
     }
+    for r in &report.refused_references {
+        out.warnings.push(format!(
+            "{}: the reference '{r}' points outside the document and was not read; what it would draw was not audited",
+            args.input.display()
+        ));
+    }
     if opt.scheme.is_none() {
         out.warnings.push(
             "the SVG does not say its kind of scheme: order, glare and midpoint were not judged (give --scheme)"
