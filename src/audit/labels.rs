@@ -13,6 +13,7 @@ use crate::color::Srgb;
 use crate::error::{Error, Result};
 use crate::raster;
 
+use super::detect::fill_id;
 use super::style::Cascade;
 
 /// The background (and anything outside every drawn element).
@@ -113,8 +114,6 @@ pub struct LabelSvg {
     /// orders the rest.
     pub detected: Option<Vec<u8>>,
 }
-
-use super::detect::fill_id;
 
 fn label_hex(l: u16) -> String {
     format!("#{:02x}{:02x}00", l & 0xff, l >> 8)
@@ -283,7 +282,7 @@ impl Writer<'_> {
             }
             _ => {}
         }
-        let c = self.styled(n, ctx);
+        let mut c = self.styled(n, ctx);
         if self
             .css
             .get(n, "display")
@@ -303,7 +302,6 @@ impl Writer<'_> {
             self.out.push_str("/>");
             return Ok(());
         }
-        let mut c = c;
         let role = n.attribute("data-role");
         let class = n
             .attribute("data-class")
