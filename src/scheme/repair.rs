@@ -5,12 +5,14 @@
 //! Each class is described in OKLCH. Ordered schemes keep every hue
 //! exactly and move lightness and chroma; qualitative schemes may also turn
 //! the hue by up to 20 degrees. A neutral class (OKLCH chroma under 0.02)
-//! stays near neutral (chroma at most 0.03). A pattern search (coordinate steps that
-//! halve when nothing improves) minimises the total change plus a heavy
-//! penalty for every remaining finding, measured by how far each finding's
-//! value is past its threshold. The findings come from [`super::check`],
-//! the same judge `palette check` uses, so a repaired palette passes it
-//! exactly when the penalty reaches zero.
+//! stays near neutral (chroma at most 0.03), and a coloured class stays
+//! coloured (chroma at least 0.02), so it keeps its hue family. A pattern
+//! search (coordinate steps that halve when nothing improves) minimises
+//! the total change plus a heavy penalty for every remaining finding,
+//! measured by how far each finding's value is past its threshold. The
+//! findings come from [`super::check`], the same judge `palette check`
+//! uses, so a repaired palette passes it exactly when the penalty reaches
+//! zero.
 
 use serde::Serialize;
 
@@ -108,6 +110,11 @@ pub fn repair(kind: SchemeKind, colors: &[Srgb], ctx: &Context) -> Outcome {
                         continue;
                     }
                     if d == 1 && start[i][1] < NEUTRAL && trial[i][1] > NEUTRAL_FREEDOM {
+                        continue;
+                    }
+                    // A coloured class keeps enough chroma to keep its hue
+                    // family: it may not turn neutral.
+                    if d == 1 && start[i][1] >= NEUTRAL && trial[i][1] < NEUTRAL {
                         continue;
                     }
                     let (c, f) = cost(&trial);
