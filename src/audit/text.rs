@@ -67,12 +67,8 @@ pub fn render_with(r: &Report, extra: &str) -> String {
         for f in &r.findings {
             let _ = writeln!(
                 s,
-                "{} {} {} [{}] {}: {} (measured {}, threshold {})",
-                f.code,
-                f.kind.name(),
-                f.severity.name(),
-                f.view,
-                f.classes.join(", "),
+                "{}: {} (measured {}, threshold {})",
+                headline(f, ""),
                 f.message,
                 f.measured,
                 f.threshold
@@ -85,6 +81,23 @@ pub fn render_with(r: &Report, extra: &str) -> String {
     s.push_str(extra);
     let _ = writeln!(s, "\n{CAUTION}");
     s
+}
+
+/// `CODE kind severity [view] classes` of a finding; `no_classes` stands
+/// in for the classes of a finding that has none (text).
+fn headline(f: &super::AuditFinding, no_classes: &str) -> String {
+    let classes = if f.classes.is_empty() {
+        no_classes.to_string()
+    } else {
+        f.classes.join(", ")
+    };
+    format!(
+        "{} {} {} [{}] {classes}",
+        f.code,
+        f.kind.name(),
+        f.severity.name(),
+        f.view
+    )
 }
 
 /// The most findings a summary lists one by one.
@@ -107,16 +120,8 @@ pub fn summary(r: &Report) -> String {
     for f in r.findings.iter().take(SUMMARY_LINES) {
         let _ = writeln!(
             s,
-            "  {} {} {} [{}] {}: {} {} against {}",
-            f.code,
-            f.kind.name(),
-            f.severity.name(),
-            f.view,
-            if f.classes.is_empty() {
-                "text".to_string()
-            } else {
-                f.classes.join(", ")
-            },
+            "  {}: {} {} against {}",
+            headline(f, "text"),
             f.measure,
             f.measured,
             f.threshold
