@@ -9,7 +9,9 @@ use crate::audit::{self, Options};
 use crate::error::{Error, ExitKind};
 use crate::figure::audit::VIEWING_DISTANCE_RANGE;
 use crate::findings::Severity;
+use crate::color::Srgb;
 use crate::report::export::Exports;
+use crate::report::html::HtmlInput;
 use crate::scheme::SchemeKind;
 use crate::vision;
 
@@ -139,6 +141,11 @@ pub struct CheckArgs {
     /// written to FILE with `--junit=FILE`.
     #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
     pub junit: Option<Option<PathBuf>>,
+    /// The audit as one self-contained HTML page (figure, findings,
+    /// colours per view, difference matrices; no scripts, no outside
+    /// requests): printed, or written to FILE with `--html=FILE`.
+    #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
+    pub html: Option<Option<PathBuf>>,
 }
 
 fn usage(message: String) -> Error {
@@ -150,7 +157,7 @@ fn usage(message: String) -> Error {
 
 /// Run `check`.
 pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
-    let exports = Exports::new(args.json, args.sarif, args.junit)?;
+    let exports = Exports::new(args.json, args.sarif, args.junit, args.html)?;
     let mut inputs = vec![args.input.clone()];
     let ext = args
         .input
@@ -199,7 +206,25 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
         report.repair = audit::propose::propose(r, &report, &opt)?;
         extra = audit::propose::describe(r, &report, &opt, report.repair.as_ref());
     }
-    let stdout = match exports.write(&inputs, &report, opt.fail_on)? {
+    // The page is made only when asked: it draws the figure again.
+    let join = match (&rendered, &exports.html) {
+        (Some(r), Some(_)) => crate::report::html::join_of(r)?,
+        _ => None,
+    };
+    let page = HtmlInput {
+        input: &args.input,
+        report: &report,
+        svg: &svg,
+        background: rendered
+            .as_ref()
+            .map_or(Srgb::new(1.0, 1.0, 1.0), |r| r.figure.page.background),
+        rendered: rendered.as_ref(),
+        join: join.as_ref(),
+        proposal: &extra,
+        // The contact sheet is not made yet; the page leaves its section out.
+        sheet_png: None,
+    };
+    let stdout = match exports.write(&inputs, &report, opt.fail_on, Some(&page))? {
         Some(export) => export,
         None => audit::text::render_with(&report, &extra),
     };

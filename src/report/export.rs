@@ -1,13 +1,14 @@
-//! Where the audit's machine-readable exports go: JSON, SARIF and JUnit
-//! XML, each to standard output or to a file written atomically (never
+//! Where the audit's exports go: JSON, SARIF, JUnit XML and the HTML
+//! page, each to standard output or to a file written atomically (never
 //! over an input). Owns the routing only; the shapes are in
-//! [`super::sarif`], [`super::junit`] and the serialised
+//! [`super::sarif`], [`super::junit`], [`super::html`] and the serialised
 //! [`crate::audit::Report`].
 
 use std::path::{Path, PathBuf};
 
 use super::audited::{Anchors, Audited};
-use super::{junit, sarif};
+use super::html::HtmlInput;
+use super::{html, junit, sarif};
 use crate::audit::Report;
 use crate::error::{Error, Result};
 use crate::findings::Severity;
@@ -22,6 +23,8 @@ pub struct Exports {
     pub sarif: Option<Option<PathBuf>>,
     /// A JUnit XML document.
     pub junit: Option<Option<PathBuf>>,
+    /// A self-contained HTML page.
+    pub html: Option<Option<PathBuf>>,
 }
 
 /// The export formats.
@@ -30,6 +33,7 @@ enum Format {
     Json,
     Sarif,
     Junit,
+    Html,
 }
 
 impl Format {
@@ -38,6 +42,7 @@ impl Format {
             Format::Json => "--json",
             Format::Sarif => "--sarif",
             Format::Junit => "--junit",
+            Format::Html => "--html",
         }
     }
 }
@@ -56,8 +61,14 @@ impl Exports {
         json: Option<Option<PathBuf>>,
         sarif: Option<Option<PathBuf>>,
         junit: Option<Option<PathBuf>>,
+        html: Option<Option<PathBuf>>,
     ) -> Result<Exports> {
-        let e = Exports { json, sarif, junit };
+        let e = Exports {
+            json,
+            sarif,
+            junit,
+            html,
+        };
         let to_stdout: Vec<&str> = e
             .asked()
             .filter(|(_, d)| d.is_none())
@@ -91,6 +102,7 @@ impl Exports {
             (Format::Json, &self.json),
             (Format::Sarif, &self.sarif),
             (Format::Junit, &self.junit),
+            (Format::Html, &self.html),
         ]
         .into_iter()
         .filter_map(|(format, d)| {
@@ -100,14 +112,16 @@ impl Exports {
     }
 
     /// Write the exports of `report` (the audit of `inputs[0]`, which
-    /// read `inputs`; findings at or above `fail_on` fail). Files are
-    /// written atomically and never over an input; the text of the export
+    /// read `inputs`; findings at or above `fail_on` fail; `page` is what
+    /// the HTML page shows, needed when it is asked). Files are written
+    /// atomically and never over an input; the text of the export
     /// that goes to standard output is returned (None: none does).
     pub fn write(
         &self,
         inputs: &[PathBuf],
         report: &Report,
         fail_on: Severity,
+        page: Option<&HtmlInput>,
     ) -> Result<Option<String>> {
         let input = inputs
             .first()
@@ -124,6 +138,9 @@ impl Exports {
                 }
                 Format::Sarif => sarif::render(&audited)?,
                 Format::Junit => junit::render(&audited, fail_on),
+                Format::Html => html::render(page.ok_or_else(|| {
+                    Error::Internal("an HTML export without its page".into())
+                })?)?,
             };
             match dest {
                 None => stdout = Some(text),

@@ -3,6 +3,7 @@
 
 pub mod audited;
 pub mod export;
+pub mod html;
 pub mod inspect_text;
 pub mod junit;
 pub mod palette_text;
