@@ -6,10 +6,10 @@ use std::path::PathBuf;
 use clap::{Args, ValueEnum};
 
 use crate::audit::{self, Options};
+use crate::color::Srgb;
 use crate::error::{Error, ExitKind};
 use crate::figure::audit::VIEWING_DISTANCE_RANGE;
 use crate::findings::Severity;
-use crate::color::Srgb;
 use crate::report::export::Exports;
 use crate::report::html::HtmlInput;
 use crate::scheme::SchemeKind;

@@ -129,19 +129,20 @@ impl Exports {
         let audited = [Audited::new(input, report, Anchors::read(input))];
         let mut stdout = None;
         for (format, dest) in self.asked() {
-            let text = match format {
-                Format::Json => {
-                    let mut s = serde_json::to_string_pretty(report)
-                        .map_err(|e| Error::Internal(format!("serialising the audit: {e}")))?;
-                    s.push('\n');
-                    s
-                }
-                Format::Sarif => sarif::render(&audited)?,
-                Format::Junit => junit::render(&audited, fail_on),
-                Format::Html => html::render(page.ok_or_else(|| {
-                    Error::Internal("an HTML export without its page".into())
-                })?)?,
-            };
+            let text =
+                match format {
+                    Format::Json => {
+                        let mut s = serde_json::to_string_pretty(report)
+                            .map_err(|e| Error::Internal(format!("serialising the audit: {e}")))?;
+                        s.push('\n');
+                        s
+                    }
+                    Format::Sarif => sarif::render(&audited)?,
+                    Format::Junit => junit::render(&audited, fail_on),
+                    Format::Html => html::render(page.ok_or_else(|| {
+                        Error::Internal("an HTML export without its page".into())
+                    })?)?,
+                };
             match dest {
                 None => stdout = Some(text),
                 Some(path) => {

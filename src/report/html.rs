@@ -119,7 +119,11 @@ pub fn render(page: &HtmlInput) -> Result<String> {
     s.push_str("<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n");
     s.push_str("<link rel=\"icon\" href=\"data:,\">\n");
     let _ = writeln!(s, "<title>hueproof audit: {}</title>", escape(&name));
-    let _ = write!(s, "<style>\n{}{STYLE}</style>\n</head>\n<body>\n", root_vars());
+    let _ = write!(
+        s,
+        "<style>\n{}{STYLE}</style>\n</head>\n<body>\n",
+        root_vars()
+    );
     let _ = writeln!(s, "<h1>Colour audit of <code>{}</code></h1>", escape(&name));
 
     verdict(&mut s, r);
@@ -170,7 +174,9 @@ pub fn render(page: &HtmlInput) -> Result<String> {
     swatches(&mut s, r);
     matrices(&mut s, r);
     if let Some(j) = page.join {
-        let panels = page.rendered.and_then(|rd| rd.figure.panel_column.as_deref());
+        let panels = page
+            .rendered
+            .and_then(|rd| rd.figure.panel_column.as_deref());
         join_section(&mut s, j, panels);
     }
     if let Some(c) = page
@@ -215,7 +221,10 @@ fn verdict(s: &mut String, r: &Report) {
     let _ = writeln!(
         s,
         "<p class=\"muted\">{} ({}), {}: {}; audited at {} dpi for a viewing distance of {} cm.</p>",
-        plural(r.classes.len(), "class"),
+        match r.classes.len() {
+            1 => "1 class".to_string(),
+            n => format!("{n} classes"),
+        },
         if r.classes_from == "fills" {
             "detected from the distinct fills"
         } else {
@@ -234,12 +243,12 @@ fn findings_table(s: &mut String, r: &Report) {
         s.push_str("<p>No findings.</p>\n</section>\n");
         return;
     }
-    s.push_str("<div class=\"scroll\">\n<table>\n<thead><tr><th>Code</th><th>Kind</th><th>Severity</th><th>View</th><th>Classes</th><th>Measure</th><th class=\"num\">Measured</th><th class=\"num\">Threshold</th><th>Message</th><th>Fix</th></tr></thead>\n<tbody>\n");
+    s.push_str("<div class=\"scroll\">\n<table class=\"findings\">\n<thead><tr><th>Code</th><th>Kind</th><th>Severity</th><th>View</th><th>Classes</th><th>Measure</th><th class=\"num\">Measured</th><th class=\"num\">Threshold</th><th>Message</th><th>Fix</th></tr></thead>\n<tbody>\n");
     for f in &r.findings {
         let classes = f.classes.join(",");
         let _ = writeln!(
             s,
-            "<tr class=\"{sev}\" data-code=\"{code}\" data-kind=\"{kind}\" data-severity=\"{sev}\" data-view=\"{view}\" data-classes=\"{classes}\" data-measured=\"{m}\" data-threshold=\"{t}\"><td><code>{code}</code></td><td>{kind}</td><td>{sev}</td><td>{view}</td><td>{classes_text}</td><td><code>{measure}</code></td><td class=\"num\">{m}</td><td class=\"num\">{t}</td><td>{msg}</td><td>{fix}</td></tr>",
+            "<tr class=\"{sev}\" data-code=\"{code}\" data-kind=\"{kind}\" data-severity=\"{sev}\" data-view=\"{view}\" data-classes=\"{classes}\" data-measured=\"{m}\" data-threshold=\"{t}\"><td><code>{code}</code></td><td>{kind}</td><td>{sev}</td><td>{view}</td><td>{classes_text}</td><td><code>{measure}</code></td><td class=\"num\">{m}</td><td class=\"num\">{t}</td><td class=\"text\">{msg}</td><td class=\"text\">{fix}</td></tr>",
             sev = f.severity.name(),
             code = f.code,
             kind = f.kind.name(),
@@ -410,7 +419,11 @@ fn matrices(s: &mut String, r: &Report) {
 }
 
 fn key_list(s: &mut String, title: &str, id: &str, keys: &[String]) {
-    let _ = write!(s, "<dt>{title}</dt><dd id=\"{id}\" data-count=\"{}\">", keys.len());
+    let _ = write!(
+        s,
+        "<dt>{title}</dt><dd id=\"{id}\" data-count=\"{}\">",
+        keys.len()
+    );
     if keys.is_empty() {
         s.push_str("none");
     } else {
