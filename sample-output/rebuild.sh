@@ -21,6 +21,8 @@ unset IFS
 # (tests/sample_output.rs checks these too). check exits 1 on it.
 a=sample-output/audit/clashing-colours
 "$bin" check "$a.toml" > "$a.check.txt" || true
-"$bin" check "$a.toml" --json="$a.check.json" --sarif="$a.sarif" --junit="$a.junit.xml" > /dev/null || true
+"$bin" check "$a.toml" --json="$a.check.json" --sarif="$a.sarif" --junit="$a.junit.xml" --html="$a.html" > /dev/null || true
+# The HTML report of a demo figure that passes.
+"$bin" check sample-output/choropleth.toml --html=sample-output/audit/choropleth.html > /dev/null
 "$bin" render "$a.toml" -o "$a-repaired.svg" --repair > "$a-repaired.txt"
 echo "sample-output rebuilt"

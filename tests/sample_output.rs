@@ -17,6 +17,39 @@ fn decode(p: &Path) -> (u32, u32, Vec<u8>) {
     (info.width, info.height, buf)
 }
 
+/// HTML reports are the same: the text byte for byte, the PNG images
+/// inside (data URIs) pixel by pixel within the tolerance used above.
+fn same_html(a: &str, b: &str) -> bool {
+    use base64::Engine as _;
+    const PNG: &str = "data:image/png;base64,";
+    let (pa, pb): (Vec<&str>, Vec<&str>) = (a.split(PNG).collect(), b.split(PNG).collect());
+    if pa.len() != pb.len() || pa[0] != pb[0] {
+        return false;
+    }
+    pa.iter().zip(&pb).skip(1).all(|(x, y)| {
+        let (ix, iy) = (x.find('"').unwrap_or(0), y.find('"').unwrap_or(0));
+        let pixels = |b64: &str| {
+            let bytes = base64::engine::general_purpose::STANDARD
+                .decode(b64)
+                .unwrap();
+            let mut r = png::Decoder::new(std::io::Cursor::new(bytes))
+                .read_info()
+                .unwrap();
+            let mut buf = vec![0; r.output_buffer_size().unwrap()];
+            let info = r.next_frame(&mut buf).unwrap();
+            buf.truncate(info.buffer_size());
+            (info.width, info.height, buf)
+        };
+        let ((w1, h1, p1), (w2, h2, p2)) = (pixels(&x[..ix]), pixels(&y[..iy]));
+        let off = p1
+            .iter()
+            .zip(&p2)
+            .filter(|(u, v)| u.abs_diff(**v) > 8)
+            .count();
+        x[ix..] == y[iy..] && (w1, h1) == (w2, h2) && off * 1000 <= p1.len()
+    })
+}
+
 #[test]
 fn sample_output_matches_a_fresh_demo() {
     let dir = std::env::temp_dir().join(format!("hueproof-sample-{}", std::process::id()));
@@ -78,12 +111,14 @@ fn the_committed_audit_samples_match_a_fresh_check() {
     std::fs::create_dir_all(&dir).unwrap();
     let out = |name: &str| dir.join(name).to_str().unwrap().to_string();
     let (json, sarif, junit, svg) = (out("a.json"), out("a.sarif"), out("a.xml"), out("r.svg"));
+    let html = out("a.html");
     run(&[
         "check",
         spec,
         &format!("--json={json}"),
         &format!("--sarif={sarif}"),
         &format!("--junit={junit}"),
+        &format!("--html={html}"),
     ]);
     run(&["render", spec, "-o", &svg, "--repair"]);
     for (fresh, ext) in [
@@ -97,5 +132,25 @@ fn the_committed_audit_samples_match_a_fresh_check() {
             "sample-output/audit/clashing-colours{ext} differs; run sh sample-output/rebuild.sh"
         );
     }
+    assert!(
+        same_html(
+            &std::fs::read_to_string(&html).unwrap(),
+            &committed(".html")
+        ),
+        "sample-output/audit/clashing-colours.html differs; run sh sample-output/rebuild.sh"
+    );
+    let passing = out("p.html");
+    run(&[
+        "check",
+        "sample-output/choropleth.toml",
+        &format!("--html={passing}"),
+    ]);
+    assert!(
+        same_html(
+            &std::fs::read_to_string(&passing).unwrap(),
+            &std::fs::read_to_string("sample-output/audit/choropleth.html").unwrap()
+        ),
+        "sample-output/audit/choropleth.html differs; run sh sample-output/rebuild.sh"
+    );
     let _ = std::fs::remove_dir_all(&dir);
 }
