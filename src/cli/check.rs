@@ -1,5 +1,6 @@
 //! `hueproof check SPEC|FIGURE.svg`: the measured audit of a figure, as
-//! text, JSON, SARIF or JUnit XML, with an exit code a build can act on.
+//! text, JSON, SARIF, JUnit XML or an HTML page, with an exit code a build
+//! can act on.
 
 use std::path::PathBuf;
 
