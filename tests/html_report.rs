@@ -347,3 +347,36 @@ fn an_svg_from_elsewhere_gets_a_page_without_spec_sections() {
     assert_eq!(rows, json_rows(&json).len());
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn a_contact_sheet_given_as_png_gets_its_section() {
+    use hueproof::report::html::{HtmlInput, render};
+    let svg = "<svg xmlns=\"http://www.w3.org/2000/svg\" width=\"40mm\" height=\"20mm\" viewBox=\"0 0 40 20\"><rect width=\"40\" height=\"20\" fill=\"#ffffff\"/><rect x=\"2\" y=\"2\" width=\"17\" height=\"16\" fill=\"#2b6cb0\"/><rect x=\"21\" y=\"2\" width=\"17\" height=\"16\" fill=\"#f6ad55\"/></svg>";
+    let name = std::path::Path::new("two.svg");
+    let opt = hueproof::audit::Options::new();
+    let report = hueproof::audit::audit_svg(name, svg, &opt).unwrap();
+    // Any PNG stands in for the sheet here: the figure itself, drawn.
+    let doc = hueproof::raster::parse(name, svg.as_bytes()).unwrap();
+    let img = hueproof::raster::render(name, &doc, 96.0, Srgb::new(1.0, 1.0, 1.0)).unwrap();
+    let sheet = hueproof::raster::encode_png(&img, 96.0).unwrap();
+    let mut page = HtmlInput {
+        input: name,
+        report: &report,
+        svg,
+        background: Srgb::new(1.0, 1.0, 1.0),
+        rendered: None,
+        join: None,
+        proposal: "",
+        sheet_png: Some(&sheet),
+    };
+    let with = render(&page).unwrap();
+    assert!(with.contains("<section id=\"sheet\">"));
+    let uri = format!(
+        "data:image/png;base64,{}",
+        base64::engine::general_purpose::STANDARD.encode(&sheet)
+    );
+    assert!(with.contains(&uri), "the sheet's bytes, as given");
+    page.sheet_png = None;
+    let without = render(&page).unwrap();
+    assert!(!without.contains("id=\"sheet\"") && !without.contains(&uri));
+}
