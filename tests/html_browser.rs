@@ -4,8 +4,8 @@
 //! exception, no console or log error and no request but its own file
 //! and data: URIs; every image must decode; the findings read from the
 //! DOM must be the JSON report's; a screenshot must decode and show a
-//! drawn page; and on a phone-sized viewport nothing may overflow
-//! sideways.
+//! drawn page; on a phone-sized viewport nothing may overflow sideways;
+//! and in print the print style sheet applies.
 //!
 //! The browser is `$CHROME`, else `/usr/bin/chromium`, else `chromium` on
 //! the PATH (`.ci/run` installs Debian's package). Without one the test
@@ -309,6 +309,17 @@ fn the_report_loads_cleanly_in_a_headless_browser() {
         scroll <= PHONE_WIDTH,
         "the page is {scroll} px wide on a {PHONE_WIDTH} px phone: {widths}"
     );
+
+    // In print the wide tables are not clipped in scroll boxes (the
+    // print style sheet applies).
+    cdp.call(s, "Emulation.setEmulatedMedia", json!({"media": "print"}));
+    let overflow = cdp.eval(
+        &session,
+        "JSON.stringify(Array.from(document.querySelectorAll('.scroll')).map(e => getComputedStyle(e).overflowX))",
+    );
+    let overflow = overflow.as_array().unwrap();
+    assert!(!overflow.is_empty());
+    assert!(overflow.iter().all(|o| o == "visible"), "{overflow:?}");
 
     // Nothing went wrong, and nothing was asked for but the page itself.
     for e in &cdp.events {
