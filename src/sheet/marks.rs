@@ -57,7 +57,7 @@ fn step(mask: &[bool], w: usize, h: usize, grow: bool) -> Vec<bool> {
                 (y + 1 < h).then(|| mask[i + w]),
             ];
             if grow {
-                out[i] = mask[i] || n.iter().any(|v| *v == Some(true));
+                out[i] = mask[i] || n.contains(&Some(true));
             } else {
                 out[i] = mask[i] && n.iter().all(|v| *v == Some(true));
             }
