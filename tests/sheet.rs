@@ -472,3 +472,54 @@ fn bad_input_exits_2_naming_the_file_and_an_input_is_never_overwritten() {
     assert_eq!(e.exit_kind(), ExitKind::BadInput);
     let _ = std::fs::remove_dir_all(&dir);
 }
+
+#[test]
+fn the_committed_sample_sheets_match_a_fresh_run() {
+    // Run from the package root (as cargo runs tests), with the arguments
+    // of sample-output/sheets/rebuild.sh; PNGs compared pixel by pixel
+    // within a small tolerance, as tests/sample_output.rs does.
+    let mut specs: Vec<String> = std::fs::read_dir("sample-output")
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|e| e == "toml"))
+        .map(|p| p.to_str().unwrap().to_string())
+        .collect();
+    specs.sort();
+    specs.push("sample-output/audit/clashing-colours.toml".into());
+    let dir = scratch("sheet", "samples");
+    let out = dir.to_str().unwrap().to_string();
+    let mut args = vec!["sheet"];
+    args.extend(specs.iter().map(String::as_str));
+    args.extend(["-o", &out, "--dpi", "100"]);
+    let r = cli(&args).unwrap();
+    assert_eq!(r.kind, ExitKind::Findings);
+    let committed = std::fs::read_to_string("sample-output/sheets/sheets.txt").unwrap();
+    assert!(
+        r.stdout.replace(&out, "sample-output/sheets") == committed,
+        "sample-output/sheets/sheets.txt differs; run sh sample-output/sheets/rebuild.sh"
+    );
+    let mut names: Vec<_> = std::fs::read_dir(&dir)
+        .unwrap()
+        .map(|e| e.unwrap().file_name())
+        .collect();
+    names.sort();
+    assert_eq!(names.len(), specs.len() + 1);
+    for n in names {
+        let fresh = decode(&std::fs::read(dir.join(&n)).unwrap());
+        let old = std::fs::read(Path::new("sample-output/sheets").join(&n))
+            .unwrap_or_else(|_| panic!("sample-output/sheets/{n:?} is missing; rebuild"));
+        let old = decode(&old);
+        assert_eq!((fresh.0, fresh.1), (old.0, old.1), "{n:?}");
+        let off = fresh
+            .2
+            .iter()
+            .zip(&old.2)
+            .filter(|(a, b)| a.abs_diff(**b) > 8)
+            .count();
+        assert!(
+            off * 1000 <= fresh.2.len(),
+            "{n:?}: {off} channel values differ by more than 8 levels; run sh sample-output/sheets/rebuild.sh"
+        );
+    }
+    let _ = std::fs::remove_dir_all(&dir);
+}
