@@ -329,6 +329,50 @@ fn a_pale_borderless_class_gets_a_dashed_mark_in_every_view() {
 }
 
 #[test]
+fn a_glaring_class_is_hatched_inside_and_no_other_class_is() {
+    // As in tests/audit.rs: one class at CIELAB L* about 20 among three
+    // at 55 to 75 in a qualitative scheme glares in every view.
+    let fills = ["#b07a5f", "#7fa67c", "#a9b8de", "#2b2f45"];
+    let body: String = fills
+        .iter()
+        .enumerate()
+        .map(|(i, f)| {
+            marks_of(
+                &format!("c{}", i + 1),
+                f,
+                &[rect(10.0 + 50.0 * i as f64, 10.0, 40.0, 40.0)],
+            )
+        })
+        .collect();
+    let mut opt = Options::new();
+    opt.dpi = 48.0;
+    opt.scheme = Some(hueproof::scheme::SchemeKind::Qualitative);
+    let ex = audit::examine(Path::new("t.svg"), &page(220.0, 60.0, &body), &opt).unwrap();
+    assert!(
+        ex.report
+            .findings
+            .iter()
+            .all(|f| f.code == "HP103" && f.classes == ["c4"])
+    );
+    let s = sheet::build("glare", &ex, &opt);
+    for p in &s.panels {
+        let on_c4 = p
+            .marks
+            .iter()
+            .zip(&ex.labels.ids)
+            .filter(|(m, _)| **m != marks::NONE)
+            .map(|(_, &l)| l == fill_label(3))
+            .collect::<Vec<_>>();
+        assert!(on_c4.len() > 20, "{}", p.view);
+        assert!(
+            on_c4.iter().all(|&b| b),
+            "{}: a hatch left class c4",
+            p.view
+        );
+    }
+}
+
+#[test]
 fn the_sheet_text_passes_the_audit_text_contrast_rule() {
     // The audit's own text rule (HP108, WCAG 2.x SC 1.4.3) run on the
     // sheet's chrome in every view.

@@ -176,6 +176,36 @@ mod tests {
     }
 
     #[test]
+    fn hatching_stays_inside_the_class_and_alternates_dark_and_light() {
+        let mut ids = vec![0u16; 400];
+        for y in 2..18 {
+            for x in 2..18 {
+                ids[y * 20 + x] = fill_label(0);
+            }
+        }
+        let l = Labels {
+            width: 20,
+            height: 20,
+            ids,
+        };
+        let m = layer(&l, &[(0, Mark::Hatch)], 96.0);
+        let (mut dark, mut light) = (0, 0);
+        for (i, &v) in m.iter().enumerate() {
+            if v != NONE {
+                // Inside, off the edge ring (the edge is for outlines).
+                let (x, y) = (i % 20, i / 20);
+                assert!((3..17).contains(&x) && (3..17).contains(&y), "{x} {y}");
+                let d = (x + y) % 6;
+                assert_eq!(v, if d == 0 { ON_DARK } else { ON_LIGHT });
+                assert!(d < 2);
+            }
+            dark += (v == ON_DARK) as usize;
+            light += (v == ON_LIGHT) as usize;
+        }
+        assert!(dark > 20 && light > 20, "{dark} {light}");
+    }
+
+    #[test]
     fn a_class_not_in_the_raster_draws_nothing() {
         let m = layer(&square(), &[(3, Mark::Solid)], 96.0);
         assert!(m.iter().all(|&v| v == NONE));

@@ -15,7 +15,9 @@ pub fn note(name: &str, view: View) -> &'static str {
         View::Dichromacy(Deficiency::Protan) => "about 1% of men, 0.02% of women",
         View::Dichromacy(Deficiency::Deutan) => "about 1% of men, 0.01% of women",
         View::Dichromacy(Deficiency::Tritan) => "very rare (0.001-0.01%), women and men alike",
-        View::Anomaly(Deficiency::Protan, _) => "about 1% of men, 0.02% of women (all severities)",
+        View::Anomaly(Deficiency::Protan, _) => {
+            "about 1.3% of men, 0.02% of women (all severities)"
+        }
         View::Anomaly(Deficiency::Deutan, _) => "about 5% of men, 0.35% of women (all severities)",
         View::Anomaly(Deficiency::Tritan, _) => "very rare, women and men alike",
         View::Achromatopsia if name == "grayscale" => "grayscale print or photocopy",
