@@ -39,6 +39,22 @@ fn rect(x: f64, y: f64, w: f64, h: f64) -> String {
     format!(r#"<rect x="{x}" y="{y}" width="{w}" height="{h}"/>"#)
 }
 
+/// Classes c1, c2, ... of `fills`, one 40 x 40 square each, `pitch` apart.
+fn row<S: AsRef<str>>(fills: &[S], pitch: f64) -> String {
+    fills
+        .iter()
+        .enumerate()
+        .map(|(i, f)| {
+            let x = 10.0 + pitch * i as f64;
+            marks_of(
+                &format!("c{}", i + 1),
+                f.as_ref(),
+                &[rect(x, 10.0, 40.0, 40.0)],
+            )
+        })
+        .collect()
+}
+
 // A red and a green of nearly equal lightness (CIELAB L* about 54 and 53),
 // the confusion pair of protan and deutan readers (common practice), as in
 // tests/audit.rs, where the audit flags them under protanopia,
@@ -134,17 +150,7 @@ fn panels_match_the_reference_simulation_of_machado_2009() {
             colours.push(r["hex_in"].clone());
         }
     }
-    let body: String = colours
-        .iter()
-        .enumerate()
-        .map(|(i, c)| {
-            marks_of(
-                &format!("c{}", i + 1),
-                c,
-                &[rect(10.0 + 40.0 * i as f64, 10.0, 40.0, 40.0)],
-            )
-        })
-        .collect();
+    let body = row(&colours, 40.0);
     let views = "normal,protanomaly=1.0,deuteranomaly=1.0,tritanomaly=1.0,protanomaly=0.6,deuteranomaly=0.6";
     let (ex, opt) = examine(&page(260.0, 60.0, &body), 72.0, Some(views));
     let s = sheet::build("reference colours", &ex, &opt);
@@ -333,17 +339,7 @@ fn a_glaring_class_is_hatched_inside_and_no_other_class_is() {
     // As in tests/audit.rs: one class at CIELAB L* about 20 among three
     // at 55 to 75 in a qualitative scheme glares in every view.
     let fills = ["#b07a5f", "#7fa67c", "#a9b8de", "#2b2f45"];
-    let body: String = fills
-        .iter()
-        .enumerate()
-        .map(|(i, f)| {
-            marks_of(
-                &format!("c{}", i + 1),
-                f,
-                &[rect(10.0 + 50.0 * i as f64, 10.0, 40.0, 40.0)],
-            )
-        })
-        .collect();
+    let body = row(&fills, 50.0);
     let mut opt = Options::new();
     opt.dpi = 48.0;
     opt.scheme = Some(hueproof::scheme::SchemeKind::Qualitative);
