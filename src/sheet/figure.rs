@@ -132,8 +132,9 @@ fn panels(ex: &Examined, opt: &Options) -> Vec<(Raster, Vec<u8>)> {
         .collect()
 }
 
-/// Draw the key: one sample per kind of mark, with what it means.
-fn key(body: &mut String, x: f64, y: f64, un: &Units, lw: f64) -> f64 {
+/// Draw the key: one sample per kind of mark, with what it means. Returns
+/// its height and width.
+fn key(body: &mut String, x: f64, y: f64, un: &Units, lw: f64) -> (f64, f64) {
     let rows = [
         (
             Mark::Solid,
@@ -150,6 +151,7 @@ fn key(body: &mut String, x: f64, y: f64, un: &Units, lw: f64) -> f64 {
     ];
     let (sw, sh) = (un.px(30.0).round(), un.px(12.0).round());
     let mut at = y;
+    let mut wide: f64 = 0.0;
     for (mark, words) in rows {
         let (x0, y0) = (x.round(), at.round());
         // A mid-grey sample with the mark drawn on it as on a panel.
@@ -200,9 +202,10 @@ fn key(body: &mut String, x: f64, y: f64, un: &Units, lw: f64) -> f64 {
             false,
             words,
         );
+        wide = wide.max(sw + un.px(8.0) + crate::font::text_width(words, un.px(10.5), false));
         at += un.px(17.0);
     }
-    at - y
+    (at - y, wide)
 }
 
 /// Lay out the contact sheet of `ex`, audited with `opt`; `title` names
@@ -240,7 +243,10 @@ pub fn build(title: &str, ex: &Examined, opt: &Options) -> Sheet {
         false,
         &verdict(ex),
     );
-    let key_h = key(&mut body, margin, margin + un.px(44.0), &un, lw);
+    let (key_h, key_w) = key(&mut body, margin, margin + un.px(44.0), &un, lw);
+    let head_w = key_w
+        .max(crate::font::text_width(title, un.px(16.0), true))
+        .max(crate::font::text_width(&verdict(ex), un.px(11.5), false));
     let top = (margin + un.px(44.0) + key_h + un.px(10.0)).round();
     // The class strip: one swatch and id per class, wrapped to the cell.
     let (sw, id_size) = (un.px(14.0).round(), un.px(9.0));
@@ -264,7 +270,8 @@ pub fn build(title: &str, ex: &Examined, opt: &Options) -> Sheet {
     let cell_h = (head_h + ph + un.px(22.0) + strip_rows as f64 * strip_row_h).round();
     let gap_y = un.px(18.0).round();
     let rows = n.div_ceil(cols);
-    let width = (2.0 * margin + cols as f64 * cell_w + (cols - 1) as f64 * gap_x).ceil();
+    let width =
+        (2.0 * margin + (cols as f64 * cell_w + (cols - 1) as f64 * gap_x).max(head_w)).ceil();
     let height = (top + rows as f64 * cell_h + (rows - 1) as f64 * gap_y + margin).ceil();
     let mut images = Vec::new();
     let mut places = Vec::new();
