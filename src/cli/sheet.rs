@@ -83,7 +83,17 @@ fn format_of(path: &Path) -> Result<Format, Error> {
     }
 }
 
+/// The largest sheet drawn, in pixels (width times height).
+const MAX_SHEET_PIXELS: u64 = 60_000_000;
+
 fn encode(c: &sheet::canvas::Canvas, f: Format) -> Result<Vec<u8>, Error> {
+    let pixels = c.width as u64 * c.height as u64;
+    if pixels > MAX_SHEET_PIXELS {
+        return Err(usage(format!(
+            "the sheet would be {} x {} pixels at {} dpi (at most {MAX_SHEET_PIXELS} in all); give a lower --dpi",
+            c.width, c.height, c.dpi
+        )));
+    }
     Ok(match f {
         Format::Png => c.png()?,
         Format::Svg => c.svg()?.into_bytes(),
