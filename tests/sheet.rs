@@ -418,6 +418,40 @@ fn the_svg_sheet_embeds_each_panel_at_its_pixel_size() {
 }
 
 #[test]
+fn the_pdf_sheet_is_one_page_at_the_sheet_physical_size_and_deterministic() {
+    // Read back with lopdf (a general-purpose PDF library): one page
+    // whose MediaBox is the sheet at the audit DPI in PostScript points
+    // (72 per inch, the PDF specification's default user space unit).
+    let (ex, opt) = examine(&red_green(), 48.0, None);
+    let s = sheet::build("red-green", &ex, &opt);
+    let pdf = s.canvas.pdf().unwrap();
+    assert!(pdf == s.canvas.pdf().unwrap());
+    let doc = lopdf::Document::load_mem(&pdf).unwrap();
+    let pages = doc.get_pages();
+    assert_eq!(pages.len(), 1);
+    let page = doc.get_dictionary(*pages.values().next().unwrap()).unwrap();
+    let mb: Vec<f64> = page
+        .get(b"MediaBox")
+        .unwrap()
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|o| {
+            o.as_float()
+                .map(f64::from)
+                .or_else(|_| o.as_i64().map(|v| v as f64))
+                .unwrap()
+        })
+        .collect();
+    let want = [
+        s.canvas.width as f64 * 72.0 / 48.0,
+        s.canvas.height as f64 * 72.0 / 48.0,
+    ];
+    assert!((mb[2] - mb[0] - want[0]).abs() < 0.5, "{mb:?} {want:?}");
+    assert!((mb[3] - mb[1] - want[1]).abs() < 0.5, "{mb:?} {want:?}");
+}
+
+#[test]
 fn the_command_writes_a_sheet_per_figure_and_an_index_and_exits_1_on_findings() {
     let dir = scratch("sheet", "several");
     let a = dir.join("red-green.svg");
@@ -473,6 +507,17 @@ fn the_command_writes_a_sheet_per_figure_and_an_index_and_exits_1_on_findings() 
             .unwrap()
             .starts_with("<svg")
     );
+    let pdf_out = dir.join("calm-sheet.pdf");
+    cli(&[
+        "sheet",
+        b.to_str().unwrap(),
+        "--dpi",
+        "48",
+        "-o",
+        pdf_out.to_str().unwrap(),
+    ])
+    .unwrap();
+    assert!(std::fs::read(&pdf_out).unwrap().starts_with(b"%PDF-"));
     let _ = std::fs::remove_dir_all(&dir);
 }
 
@@ -503,7 +548,7 @@ fn bad_input_exits_2_naming_the_file_and_an_input_is_never_overwritten() {
         "sheet",
         good.to_str().unwrap(),
         "-o",
-        dir.join("x.pdf").to_str().unwrap(),
+        dir.join("x.pdf.txt").to_str().unwrap(),
     ])
     .unwrap_err();
     assert_eq!(e.exit_kind(), ExitKind::BadInput);

@@ -20,6 +20,8 @@ pub enum Format {
     Png,
     /// SVG, the panels embedded as PNG data.
     Svg,
+    /// PDF, the panels drawn as vector pixel runs.
+    Pdf,
 }
 
 impl Format {
@@ -27,6 +29,7 @@ impl Format {
         match self {
             Format::Png => "png",
             Format::Svg => "svg",
+            Format::Pdf => "pdf",
         }
     }
 }
@@ -37,7 +40,7 @@ pub struct SheetArgs {
     /// Figure specs (.toml, rendered first) or SVG files.
     #[arg(value_name = "SPEC|FIGURE.svg", required = true)]
     pub inputs: Vec<PathBuf>,
-    /// The sheet file (.png or .svg) for one figure (default:
+    /// The sheet file (.png, .svg or .pdf) for one figure (default:
     /// STEM.sheet.png beside the input); for several, a folder that gets
     /// STEM.sheet.EXT per figure and index.EXT.
     #[arg(short = 'o', long = "out", value_name = "PATH")]
@@ -76,8 +79,9 @@ fn format_of(path: &Path) -> Result<Format, Error> {
     {
         Some("png") => Ok(Format::Png),
         Some("svg") => Ok(Format::Svg),
+        Some("pdf") => Ok(Format::Pdf),
         _ => Err(usage(format!(
-            "-o {}: expected a file ending in .png or .svg (PDF sheets are not made yet)",
+            "-o {}: expected a file ending in .png, .svg or .pdf",
             path.display()
         ))),
     }
@@ -97,6 +101,7 @@ fn encode(c: &sheet::canvas::Canvas, f: Format) -> Result<Vec<u8>, Error> {
     Ok(match f {
         Format::Png => c.png()?,
         Format::Svg => c.svg()?.into_bytes(),
+        Format::Pdf => c.pdf()?,
     })
 }
 

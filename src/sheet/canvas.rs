@@ -5,7 +5,11 @@
 //! pixel) and the panels are copied in pixel for pixel, so nothing
 //! resamples them. For SVG the panels are embedded as PNG data at their
 //! exact pixel size with `image-rendering="optimizeSpeed"`; how a viewer
-//! scales them is up to the viewer.
+//! scales them is up to the viewer. For PDF (whose converter takes no
+//! raster images) each panel is drawn as vector shapes: one filled path
+//! per colour made of the panel's runs of equal pixels, one unit high, so
+//! every pixel keeps its colour (a PDF viewer's anti-aliasing may show
+//! faint seams between runs when zoomed).
 
 use std::fmt::Write as _;
 use std::path::Path;
@@ -111,15 +115,62 @@ impl Canvas {
                 p.x, p.y, p.raster.width, p.raster.height
             );
         }
+        Ok(self.svg_with(&self.physical_size(), &images))
+    }
+
+    /// `width` and `height` attributes at the page's physical size.
+    fn physical_size(&self) -> String {
         let mm = |px: u32| crate::svg::num(px as f64 * 25.4 / self.dpi);
-        Ok(self.svg_with(
-            &format!(
-                r#"width="{}mm" height="{}mm""#,
-                mm(self.width),
-                mm(self.height)
-            ),
-            &images,
-        ))
+        format!(
+            r#"width="{}mm" height="{}mm""#,
+            mm(self.width),
+            mm(self.height)
+        )
+    }
+}
+
+impl Canvas {
+    /// The page as a one-page PDF at its physical size, panels as vector
+    /// pixel runs.
+    pub fn pdf(&self) -> Result<Vec<u8>> {
+        let mut runs = String::new();
+        for p in &self.images {
+            pixel_runs(&mut runs, p);
+        }
+        let svg = self.svg_with(&self.physical_size(), &runs);
+        crate::pdf::svg_to_pdf(Path::new("contact sheet"), svg.as_bytes())
+    }
+}
+
+/// `p` as one path per colour of its runs of equal pixels, colours in
+/// sorted order (deterministic output).
+fn pixel_runs(out: &mut String, p: &Placed) {
+    let r = &p.raster;
+    let mut paths: std::collections::BTreeMap<[u8; 3], String> = Default::default();
+    let (w, h) = (r.width as usize, r.height as usize);
+    for y in 0..h {
+        let row = &r.rgba[y * w * 4..(y + 1) * w * 4];
+        let mut x = 0;
+        while x < w {
+            let c = [row[4 * x], row[4 * x + 1], row[4 * x + 2]];
+            let mut e = x + 1;
+            while e < w && row[4 * e..4 * e + 3] == c {
+                e += 1;
+            }
+            let d = paths.entry(c).or_default();
+            let _ = write!(
+                d,
+                "M{} {}h{}v1h-{}z",
+                p.x as usize + x,
+                p.y as usize + y,
+                e - x,
+                e - x
+            );
+            x = e;
+        }
+    }
+    for ([r, g, b], d) in paths {
+        let _ = write!(out, r##"<path d="{d}" fill="#{r:02x}{g:02x}{b:02x}"/>"##);
     }
 }
 
