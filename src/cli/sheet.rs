@@ -219,7 +219,7 @@ pub fn run(args: SheetArgs) -> Result<Outcome, Error> {
         }
         if opt.scheme.is_none() {
             out.warnings.push(format!(
-                "{}: the SVG does not say its kind of scheme: glare was not judged (give --scheme)",
+                "{}: the SVG does not say its kind of scheme: order, glare and midpoint were not judged (give --scheme)",
                 input.display()
             ));
         }

@@ -1,6 +1,6 @@
 //! The simulation contact sheet: an audited figure side by side as readers
 //! with each kind of colour vision see it, with the audit's findings
-//! marked on the panels where they occur, on one page (PNG or SVG); and
+//! marked on the panels where they occur, on one page (PNG, SVG or PDF); and
 //! an index page of thumbnails for several figures.
 //!
 //! This stage owns the sheet's layout and drawing. It takes what the
@@ -14,7 +14,7 @@
 //!
 //! Files: [`figure`] (one figure's sheet), [`marks`] (outline, dash and
 //! hatch on the panels), [`index`] (several figures), [`canvas`] (a page:
-//! chrome SVG plus placed rasters, to PNG or SVG), [`prevalence`] (the
+//! chrome SVG plus placed rasters, to PNG, SVG or PDF), [`prevalence`] (the
 //! one-line notes).
 
 pub mod canvas;
