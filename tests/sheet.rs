@@ -491,33 +491,15 @@ fn the_command_writes_a_sheet_per_figure_and_an_index_and_exits_1_on_findings() 
     let one = cli(&["sheet", b.to_str().unwrap(), "--dpi", "48"]).unwrap();
     assert_eq!(one.kind, ExitKind::Success, "{}", one.stdout);
     assert!(dir.join("calm.sheet.png").exists());
-    // SVG by extension.
-    let svg_out = dir.join("calm-sheet.svg");
-    cli(&[
-        "sheet",
-        b.to_str().unwrap(),
-        "--dpi",
-        "48",
-        "-o",
-        svg_out.to_str().unwrap(),
-    ])
-    .unwrap();
-    assert!(
-        std::fs::read_to_string(&svg_out)
-            .unwrap()
-            .starts_with("<svg")
-    );
-    let pdf_out = dir.join("calm-sheet.pdf");
-    cli(&[
-        "sheet",
-        b.to_str().unwrap(),
-        "--dpi",
-        "48",
-        "-o",
-        pdf_out.to_str().unwrap(),
-    ])
-    .unwrap();
-    assert!(std::fs::read(&pdf_out).unwrap().starts_with(b"%PDF-"));
+    // The format by extension.
+    for (ext, magic) in [("svg", &b"<svg"[..]), ("pdf", &b"%PDF-"[..])] {
+        let path = dir.join(format!("calm-sheet.{ext}"));
+        let args = ["sheet", b.to_str().unwrap(), "--dpi", "48", "-o"];
+        let mut args = args.to_vec();
+        args.push(path.to_str().unwrap());
+        cli(&args).unwrap();
+        assert!(std::fs::read(&path).unwrap().starts_with(magic), "{ext}");
+    }
     let _ = std::fs::remove_dir_all(&dir);
 }
 
