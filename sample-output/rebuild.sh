@@ -25,4 +25,6 @@ a=sample-output/audit/clashing-colours
 # The HTML report of a demo figure that passes.
 "$bin" check sample-output/choropleth.toml --html=sample-output/audit/choropleth.html > /dev/null
 "$bin" render "$a.toml" -o "$a-repaired.svg" --repair > "$a-repaired.txt"
+# The contact sheets of the demo figures and of the failing figure.
+HUEPROOF_BIN="$bin" sh sample-output/sheets/rebuild.sh
 echo "sample-output rebuilt"

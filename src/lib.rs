@@ -40,6 +40,8 @@
 //!   paths) and [`render`] (the files). [`font`] is the embedded font and
 //!   its metrics; [`starter`] the templates, `new` and `demo`.
 //! - [`demo`]: the built-in demo dataset (an invented island, for the demo only).
+//! - [`sheet`]: the simulation contact sheet of audited figures (panels
+//!   per view with the findings marked, and an index of thumbnails).
 //! - [`cli`]: the command line, a thin layer over the stages.
 //!
 //! An audit by hueproof is an aid to design and review. It is not a
@@ -70,6 +72,7 @@ pub mod raster;
 pub mod render;
 pub mod report;
 pub mod scheme;
+pub mod sheet;
 pub mod spec;
 pub mod starter;
 pub mod svg;

@@ -220,6 +220,25 @@ fn rgb8(c: [u8; 3]) -> Srgb {
 
 /// Audit the SVG text `svg` (`name` names it in messages).
 pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
+    examine(name, svg_text, opt).map(|e| e.report)
+}
+
+/// The audit's report with what it was computed from, for drawing the
+/// findings on the figure (the contact sheet).
+#[derive(Debug, Clone)]
+pub struct Examined {
+    /// The report, as [`audit_svg`] returns it.
+    pub report: Report,
+    /// The figure as readers with normal vision see it, at the audit DPI.
+    pub raster: raster::Raster,
+    /// The label raster of the same size: class `k` (as in
+    /// `report.classes[k]`) is painted with [`labels::fill_label`]`(k)`.
+    pub labels: labels::Labels,
+}
+
+/// Audit as [`audit_svg`] does, keeping the normal raster and the label
+/// raster.
+pub fn examine(name: &Path, svg_text: &str, opt: &Options) -> Result<Examined> {
     let mut label = labels::label_svg(name, svg_text)?;
     let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
     let px_per_mm = opt.dpi / 25.4;
@@ -332,7 +351,7 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
             length_px: *len,
         })
         .collect();
-    Ok(Report {
+    let report = Report {
         passed: !findings.iter().any(|f| f.severity >= opt.fail_on),
         views: opt.views.iter().map(|v| v.name.clone()).collect(),
         dpi: opt.dpi,
@@ -347,5 +366,10 @@ pub fn audit_svg(name: &Path, svg_text: &str, opt: &Options) -> Result<Report> {
         findings,
         repair: None,
         refused_references: refused,
+    };
+    Ok(Examined {
+        report,
+        raster: img,
+        labels: lab,
     })
 }

@@ -43,7 +43,7 @@ pub enum SchemeArg {
 #[derive(Debug, Args)]
 pub struct AuditFlags {
     /// Comma-separated views: normal, protanopia, deuteranopia, tritanopia,
-    /// achromatopsia, protanomaly=S, deuteranomaly=S, tritanomaly=S
+    /// achromatopsia, grayscale (print), protanomaly=S, deuteranomaly=S, tritanomaly=S
     /// (default: the spec's audit.views, else the first five).
     #[arg(long, value_name = "LIST")]
     pub views: Option<String>,
@@ -112,6 +112,94 @@ impl AuditFlags {
     }
 }
 
+/// The flags for SVG figures, shared by `check` and `sheet`.
+#[derive(Debug, Args)]
+pub struct SvgFlags {
+    /// The figure's kind of scheme, for an SVG (a spec says it itself);
+    /// order, glare and midpoint are judged only when it is known.
+    #[arg(long, value_enum, value_name = "KIND")]
+    pub scheme: Option<SchemeArg>,
+    /// SVG from other tools: the smallest total area of one fill that
+    /// counts as a class, in square millimetres.
+    #[arg(long, default_value_t = 2.0, value_name = "MM2")]
+    pub min_class_area: f64,
+}
+
+/// A figure read for the audit: its SVG, the audit options (the spec's
+/// settings, then the flags), the rendered spec when it was one, and
+/// every file read (never to be overwritten).
+pub struct Prepared {
+    /// The figure's SVG text.
+    pub svg: String,
+    /// The audit options.
+    pub opt: Options,
+    /// The rendered spec, for a spec.
+    pub rendered: Option<crate::render::Rendered>,
+    /// The input and, for a spec, the files it reads.
+    pub inputs: Vec<PathBuf>,
+}
+
+/// Read `input` (a spec, rendered first, or an SVG) and settle the audit
+/// options with `audit` and `svg` over the spec's settings.
+pub fn prepare(
+    input: &std::path::Path,
+    audit: &AuditFlags,
+    svg: &SvgFlags,
+    what: &str,
+) -> Result<Prepared, Error> {
+    let usage = |message: String| Error::Usage {
+        what: what.into(),
+        message,
+    };
+    let mut inputs = vec![input.to_path_buf()];
+    let ext = input
+        .extension()
+        .and_then(|e| e.to_str())
+        .map(str::to_ascii_lowercase);
+    let (text, mut opt, rendered) = match ext.as_deref() {
+        Some("toml") => {
+            let r = crate::render::render(crate::figure::load(input)?)?;
+            inputs.extend(r.figure.inputs.iter().cloned());
+            let opt = audit::settings::for_figure(&r);
+            (r.svg.clone(), opt, Some(r))
+        }
+        Some("svg") => {
+            let text = std::fs::read_to_string(input).map_err(|source| Error::Read {
+                path: input.to_path_buf(),
+                source,
+            })?;
+            (text, Options::new(), None)
+        }
+        _ => {
+            return Err(usage(format!(
+                "{}: expected a figure spec (.toml) or an SVG file (.svg)",
+                input.display()
+            )));
+        }
+    };
+    audit.apply(&mut opt)?;
+    if !(svg.min_class_area.is_finite() && svg.min_class_area >= 0.0) {
+        return Err(usage(format!(
+            "--min-class-area {}: expected square millimetres, 0 or more",
+            svg.min_class_area
+        )));
+    }
+    opt.min_class_area_mm2 = svg.min_class_area;
+    if let Some(s) = svg.scheme {
+        opt.scheme = Some(match s {
+            SchemeArg::Sequential => SchemeKind::Sequential,
+            SchemeArg::Diverging => SchemeKind::Diverging,
+            SchemeArg::Qualitative => SchemeKind::Qualitative,
+        });
+    }
+    Ok(Prepared {
+        svg: text,
+        opt,
+        rendered,
+        inputs,
+    })
+}
+
 /// Arguments of `check`.
 #[derive(Debug, Args)]
 pub struct CheckArgs {
@@ -122,14 +210,9 @@ pub struct CheckArgs {
     /// Views, distance, resolution, fail level and thresholds.
     #[command(flatten)]
     pub audit: AuditFlags,
-    /// The figure's kind of scheme, for an SVG (a spec says it itself);
-    /// order, glare and midpoint are judged only when it is known.
-    #[arg(long, value_enum, value_name = "KIND")]
-    pub scheme: Option<SchemeArg>,
-    /// SVG from other tools: the smallest total area of one fill that
-    /// counts as a class, in square millimetres.
-    #[arg(long, default_value_t = 2.0, value_name = "MM2")]
-    pub min_class_area: f64,
+    /// How to read SVG made by other tools.
+    #[command(flatten)]
+    pub svg: SvgFlags,
     /// The audit as one JSON object: printed instead of text, or written
     /// to FILE with `--json=FILE`.
     #[arg(long, value_name = "FILE", num_args = 0..=1, require_equals = true)]
@@ -159,49 +242,22 @@ fn usage(message: String) -> Error {
 /// Run `check`.
 pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
     let exports = Exports::new(args.json, args.sarif, args.junit, args.html)?;
-    let mut inputs = vec![args.input.clone()];
-    let ext = args
-        .input
-        .extension()
-        .and_then(|e| e.to_str())
-        .map(str::to_ascii_lowercase);
-    let (svg, mut opt, rendered) = match ext.as_deref() {
-        Some("toml") => {
-            let r = crate::render::render(crate::figure::load(&args.input)?)?;
-            inputs.extend(r.figure.inputs.iter().cloned());
-            let opt = audit::settings::for_figure(&r);
-            (r.svg.clone(), opt, Some(r))
-        }
-        Some("svg") => {
-            let text = std::fs::read_to_string(&args.input).map_err(|source| Error::Read {
-                path: args.input.clone(),
-                source,
-            })?;
-            (text, Options::new(), None)
-        }
-        _ => {
-            return Err(usage(format!(
-                "{}: expected a figure spec (.toml) or an SVG file (.svg)",
-                args.input.display()
-            )));
-        }
+    let Prepared {
+        svg,
+        opt,
+        rendered,
+        inputs,
+    } = prepare(&args.input, &args.audit, &args.svg, "check")?;
+    // The page shows the contact sheet, which needs the audit's rasters:
+    // kept only when the page is asked for.
+    let (mut report, sheet_png) = if exports.html.is_some() {
+        let examined = audit::examine(&args.input, &svg, &opt)?;
+        let title = args.input.display().to_string();
+        let png = crate::sheet::sheet_png(&title, &examined, &opt)?;
+        (examined.report, Some(png))
+    } else {
+        (audit::audit_svg(&args.input, &svg, &opt)?, None)
     };
-    args.audit.apply(&mut opt)?;
-    if !(args.min_class_area.is_finite() && args.min_class_area >= 0.0) {
-        return Err(usage(format!(
-            "--min-class-area {}: expected square millimetres, 0 or more",
-            args.min_class_area
-        )));
-    }
-    opt.min_class_area_mm2 = args.min_class_area;
-    if let Some(s) = args.scheme {
-        opt.scheme = Some(match s {
-            SchemeArg::Sequential => SchemeKind::Sequential,
-            SchemeArg::Diverging => SchemeKind::Diverging,
-            SchemeArg::Qualitative => SchemeKind::Qualitative,
-        });
-    }
-    let mut report = audit::audit_svg(&args.input, &svg, &opt)?;
     let mut extra = String::new();
     if let Some(r) = &rendered {
         report.repair = audit::propose::propose(r, &report, &opt)?;
@@ -222,8 +278,7 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
         rendered: rendered.as_ref(),
         join: join.as_ref(),
         proposal: &extra,
-        // The contact sheet is not made yet; the page leaves its section out.
-        sheet_png: None,
+        sheet_png: sheet_png.as_deref(),
     };
     let stdout = match exports.write(&inputs, &report, opt.fail_on, Some(&page))? {
         Some(export) => export,

@@ -20,6 +20,7 @@ mod palette;
 mod render;
 mod seeing;
 mod shapes;
+mod sheet;
 mod starter;
 
 /// hueproof: colours that fit the data, proven on the rendered figure.
@@ -57,6 +58,9 @@ pub enum Command {
     /// Audit a figure on its rendered pixels under every view: classes
     /// that blend, fade, glare or break their order.
     Check(check::CheckArgs),
+    /// The simulation contact sheet: the figure under every view, with
+    /// the audit's findings marked.
+    Sheet(sheet::SheetArgs),
 }
 
 /// What a command produced: text for standard output and the outcome class.
@@ -93,6 +97,7 @@ pub fn run(cli: Cli) -> Result<Outcome, Error> {
         Command::New(args) => starter::run_new(args),
         Command::Demo(args) => starter::run_demo(args),
         Command::Check(args) => check::run(args),
+        Command::Sheet(args) => sheet::run(args),
     }
 }
 

@@ -7,9 +7,9 @@
 //! script, and a Content-Security-Policy forbids every outside request.
 //! The same input gives the same bytes.
 //!
-//! The contact sheet (the figure in every view) has a slot,
-//! [`HtmlInput::sheet_png`]; `check` passes `None` until the sheet is
-//! built, and the section is then left out.
+//! The contact sheet (the figure in every view) comes in as PNG bytes,
+//! [`HtmlInput::sheet_png`] (`check` makes it with `sheet::sheet_png`);
+//! without it the section is left out.
 
 use std::fmt::Write as _;
 use std::path::Path;

@@ -120,7 +120,7 @@ pub struct NamedView {
 pub const DEFAULT_VIEWS: &str = "normal,protanopia,deuteranopia,tritanopia,achromatopsia";
 
 const VIEW_NAMES: &str = "normal, protanopia, deuteranopia, tritanopia, achromatopsia, \
-                          protanomaly=S, deuteranomaly=S, tritanomaly=S (S from 0 to 1)";
+                          grayscale, protanomaly=S, deuteranomaly=S, tritanomaly=S (S from 0 to 1)";
 
 /// Parse one view name.
 pub fn parse_view(text: &str) -> Result<NamedView, ParseViewError> {
@@ -135,6 +135,8 @@ pub fn parse_view(text: &str) -> Result<NamedView, ParseViewError> {
         "deuteranopia" => View::Dichromacy(Deficiency::Deutan),
         "tritanopia" => View::Dichromacy(Deficiency::Tritan),
         "achromatopsia" => View::Achromatopsia,
+        // Grayscale print: the same luminance-only transform (methods 4.4).
+        "grayscale" => View::Achromatopsia,
         _ => {
             let Some((kind, sev)) = name.split_once('=') else {
                 return Err(err(format!("expected one of {VIEW_NAMES}")));
@@ -314,6 +316,14 @@ mod tests {
         let a = parse_views("protanomaly=0.6, tritanomaly=.25").unwrap();
         assert_eq!(a[0].view, View::Anomaly(Deficiency::Protan, 0.6));
         assert_eq!(a[1].name, "tritanomaly=.25");
+    }
+
+    #[test]
+    fn grayscale_print_is_the_luminance_only_view_under_its_own_name() {
+        let v = parse_views("achromatopsia,grayscale").unwrap();
+        assert_eq!(v[1].name, "grayscale");
+        assert_eq!(v[1].view, View::Achromatopsia);
+        assert_eq!(Simulation::new(v[1].view, None).model(), "luminance");
     }
 
     #[test]
