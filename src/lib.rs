@@ -40,6 +40,8 @@
 //!   paths) and [`render`] (the files). [`font`] is the embedded font and
 //!   its metrics; [`starter`] the templates, `new` and `demo`.
 //! - [`demo`]: the built-in demo dataset (an invented island, for the demo only).
+//! - [`batch`]: many inputs at once (globs, `--jobs`, progress, one
+//!   exit code, interruption) for `render` and `check`.
 //! - [`cli`]: the command line, a thin layer over the stages.
 //!
 //! An audit by hueproof is an aid to design and review. It is not a
@@ -49,6 +51,7 @@
 #![warn(missing_docs)]
 
 pub mod audit;
+pub mod batch;
 pub mod classify;
 pub mod cli;
 pub mod color;

@@ -1,15 +1,17 @@
-//! `hueproof check SPEC|FIGURE.svg`: the measured audit of a figure, as
-//! text, JSON, SARIF or JUnit XML, with an exit code a build can act on.
+//! `hueproof check SPEC|FIGURE.svg...`: the measured audit of a figure,
+//! or of many at once (see [`crate::batch`]), as text, JSON, SARIF or
+//! JUnit XML, with one exit code a build can act on.
 
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 
 use clap::{Args, ValueEnum};
 
-use crate::audit::{self, Options};
+use crate::audit::{self, Options, Report};
+use crate::batch;
 use crate::error::{Error, ExitKind};
 use crate::figure::audit::VIEWING_DISTANCE_RANGE;
 use crate::findings::Severity;
-use crate::report::export::Exports;
+use crate::report::export::{BatchItem, Exports};
 use crate::scheme::SchemeKind;
 use crate::vision;
 
@@ -112,10 +114,15 @@ impl AuditFlags {
 /// Arguments of `check`.
 #[derive(Debug, Args)]
 pub struct CheckArgs {
-    /// A figure spec (.toml, rendered first) or an SVG file (hueproof's
-    /// own, or made by any other tool).
-    #[arg(value_name = "SPEC|FIGURE.svg")]
-    pub input: PathBuf,
+    /// Figure specs (.toml, rendered first) or SVG files (hueproof's own,
+    /// or made by any other tool): paths or glob patterns (quoted, e.g.
+    /// 'figures/*.svg'), expanded by hueproof, sorted.
+    #[arg(value_name = "SPEC|FIGURE.svg", required = true, num_args = 1..)]
+    pub inputs: Vec<String>,
+    /// With several inputs: how many figures to audit at once (default:
+    /// the number of cores).
+    #[arg(long, value_name = "N")]
+    pub jobs: Option<usize>,
     /// Views, distance, resolution, fail level and thresholds.
     #[command(flatten)]
     pub audit: AuditFlags,
@@ -148,25 +155,121 @@ fn usage(message: String) -> Error {
     }
 }
 
-/// Run `check`.
+/// One audited input.
+struct Checked {
+    report: Report,
+    /// The input, then every file it read.
+    inputs: Vec<PathBuf>,
+    fail_on: Severity,
+    /// The proposed palette, described (specs only).
+    extra: String,
+    warnings: Vec<String>,
+}
+
+impl Checked {
+    fn kind(&self) -> ExitKind {
+        if self.report.passed {
+            ExitKind::Success
+        } else {
+            ExitKind::Findings
+        }
+    }
+}
+
+/// Run `check`: one input as before, several as a batch.
 pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
-    let exports = Exports::new(args.json, args.sarif, args.junit)?;
-    let mut inputs = vec![args.input.clone()];
-    let ext = args
-        .input
+    let exports = Exports::new(args.json.clone(), args.sarif.clone(), args.junit.clone())?;
+    let jobs = batch::jobs(args.jobs)?;
+    let inputs = batch::expand(&args.inputs)?;
+    batch::catch_interrupts();
+    if let [input] = inputs.as_slice() {
+        return unless_interrupted(check_one(&args, input).and_then(|c| {
+            let stdout = match exports.write(&c.inputs, &c.report, c.fail_on)? {
+                Some(export) => export,
+                None => audit::text::render_with(&c.report, &c.extra),
+            };
+            let mut out = Outcome::success(stdout);
+            out.kind = c.kind();
+            out.warnings = c.warnings;
+            Ok(out)
+        }));
+    }
+    let done = batch::run(
+        &inputs,
+        jobs,
+        batch::Progress::for_stderr(),
+        |input| check_one(&args, input),
+        |r| match r {
+            Ok(c) if c.report.passed => "passed".into(),
+            Ok(_) => "FAILED".into(),
+            Err(e) => format!("not audited: {e}"),
+        },
+    )?;
+    let items: Vec<BatchItem> = done
+        .iter()
+        .map(|f| BatchItem {
+            input: &f.input,
+            result: f.result.as_ref().map(|r| {
+                r.as_ref()
+                    .map(|c| (c.inputs.as_slice(), &c.report, c.fail_on))
+            }),
+        })
+        .collect();
+    let export = exports.write_many(&items)?;
+    let c = batch::combine(done, |c| {
+        let kind = c.kind();
+        (
+            audit::text::render_with(&c.report, &c.extra),
+            c.warnings,
+            kind,
+        )
+    });
+    let summary = c.summary.line("passed");
+    let stdout = match export {
+        Some(export) => {
+            // The export owns standard output; the counts go beside it.
+            eprint!("{summary}");
+            export
+        }
+        None => c.text + &summary,
+    };
+    Ok(Outcome {
+        stdout,
+        warnings: c.warnings,
+        kind: c.summary.exit_kind(),
+    })
+}
+
+/// An interrupted single-input run ends with the interrupted class (130),
+/// whatever became of its one input.
+pub(super) fn unless_interrupted(r: Result<Outcome, Error>) -> Result<Outcome, Error> {
+    if !batch::interrupted() {
+        return r;
+    }
+    Ok(Outcome {
+        stdout: String::new(),
+        warnings: vec!["interrupted: nothing more was written".into()],
+        kind: ExitKind::Interrupted,
+    })
+}
+
+/// Audit one input.
+fn check_one(args: &CheckArgs, input: &Path) -> Result<Checked, Error> {
+    let mut inputs = vec![input.to_path_buf()];
+    let ext = input
         .extension()
         .and_then(|e| e.to_str())
         .map(str::to_ascii_lowercase);
     let (svg, mut opt, rendered) = match ext.as_deref() {
         Some("toml") => {
-            let r = crate::render::render(crate::figure::load(&args.input)?)?;
+            let r = crate::render::render(crate::figure::load(input)?)?;
             inputs.extend(r.figure.inputs.iter().cloned());
             let opt = audit::settings::for_figure(&r);
             (r.svg.clone(), opt, Some(r))
         }
         Some("svg") => {
-            let text = std::fs::read_to_string(&args.input).map_err(|source| Error::Read {
-                path: args.input.clone(),
+            let text = std::fs::read_to_string(input).map_err(|source| Error::Read {
+                path: input.to_path_buf(),
                 source,
             })?;
             (text, Options::new(), None)
@@ -174,7 +277,7 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
         _ => {
             return Err(usage(format!(
                 "{}: expected a figure spec (.toml) or an SVG file (.svg)",
-                args.input.display()
+                input.display()
             )));
         }
     };
@@ -193,31 +296,30 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
             SchemeArg::Qualitative => SchemeKind::Qualitative,
         });
     }
-    let mut report = audit::audit_svg(&args.input, &svg, &opt)?;
+    let mut report = audit::audit_svg(input, &svg, &opt)?;
     let mut extra = String::new();
     if let Some(r) = &rendered {
         report.repair = audit::propose::propose(r, &report, &opt)?;
         extra = audit::propose::describe(r, &report, &opt, report.repair.as_ref());
     }
-    let stdout = match exports.write(&inputs, &report, opt.fail_on)? {
-        Some(export) => export,
-        None => audit::text::render_with(&report, &extra),
-    };
-    let mut out = Outcome::success(stdout);
-    if !report.passed {
-        out.kind = ExitKind::Findings;
-    }
+    let mut warnings = Vec::new();
     for r in &report.refused_references {
-        out.warnings.push(format!(
+        warnings.push(format!(
             "{}: the reference '{r}' points outside the document and was not read; what it would draw was not audited",
-            args.input.display()
+            input.display()
         ));
     }
     if opt.scheme.is_none() {
-        out.warnings.push(
+        warnings.push(
             "the SVG does not say its kind of scheme: order, glare and midpoint were not judged (give --scheme)"
                 .into(),
         );
     }
-    Ok(out)
+    Ok(Checked {
+        report,
+        inputs,
+        fail_on: opt.fail_on,
+        extra,
+        warnings,
+    })
 }
