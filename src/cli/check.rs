@@ -68,7 +68,7 @@ impl AuditFlags {
     /// Apply the flags over `opt`.
     pub fn apply(&self, opt: &mut Options) -> Result<(), Error> {
         if let Some(v) = &self.views {
-            opt.views = vision::parse_views(v)?;
+            opt.views = vision::parse_views(v).map_err(|e| usage(format!("--views: {e}")))?;
         }
         if let Some(d) = self.viewing_distance {
             let (lo, hi) = VIEWING_DISTANCE_RANGE;
@@ -302,7 +302,8 @@ fn check_one(args: &CheckArgs, input: &Path) -> Result<Checked, Error> {
         report.repair = audit::propose::propose(r, &report, &opt)?;
         extra = audit::propose::describe(r, &report, &opt, report.repair.as_ref());
     }
-    let mut warnings = Vec::new();
+    // The figure's own warnings (repaired shapes, merged classes...).
+    let mut warnings = rendered.map(|r| r.warnings).unwrap_or_default();
     for r in &report.refused_references {
         warnings.push(format!(
             "{}: the reference '{r}' points outside the document and was not read; what it would draw was not audited",
