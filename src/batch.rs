@@ -10,8 +10,8 @@
 //! bytes for any number of jobs.
 //!
 //! The run's exit code is the most serious class any input ended in, in
-//! the order internal error (4) > output not written (3) > bad input (2)
-//! > findings (1) > success (0), which is the highest code seen; an
+//! the order: internal error (4), output not written (3), bad input (2),
+//! findings (1), success (0); that is the highest code seen. An
 //! interrupted run exits with 130 (128 + SIGINT, the shells' convention),
 //! whatever the inputs that finished ended in.
 

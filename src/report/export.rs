@@ -137,6 +137,10 @@ impl Exports {
     }
 }
 
+/// An audited input of a batch: every file it read (itself first), its
+/// report and its fail level.
+pub type BatchAudit<'a> = (&'a [PathBuf], &'a Report, Severity);
+
 /// One input of a batch as the exports see it.
 #[derive(Debug)]
 pub struct BatchItem<'a> {
@@ -144,7 +148,7 @@ pub struct BatchItem<'a> {
     pub input: &'a Path,
     /// None: not started (the run was interrupted); else the audit (with
     /// every file the input read, and its fail level) or the error.
-    pub result: Option<std::result::Result<(&'a [PathBuf], &'a Report, Severity), &'a Error>>,
+    pub result: Option<std::result::Result<BatchAudit<'a>, &'a Error>>,
 }
 
 /// One entry of the batch JSON export.
