@@ -17,7 +17,7 @@ mod common;
 
 use std::collections::BTreeMap;
 use std::path::Path;
-use std::process::{Command, Stdio};
+use std::process::Stdio;
 use std::time::{Duration, Instant};
 
 type Files = BTreeMap<String, Vec<u8>>;
@@ -589,11 +589,7 @@ fn snapshot(dir: &Path) -> Files {
 
 /// Run the binary in `dir`, killing it after 60 s.
 fn run(dir: &Path, args: &[&str]) -> (Option<i32>, String) {
-    let mut child = Command::new(env!("CARGO_BIN_EXE_hueproof"))
-        .args(args)
-        .current_dir(dir)
-        .env("NO_COLOR", "1")
-        .stdin(Stdio::null())
+    let mut child = common::hueproof_command(dir, args)
         .stdout(Stdio::piped())
         .stderr(Stdio::piped())
         .spawn()

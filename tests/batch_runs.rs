@@ -16,13 +16,7 @@ use std::path::Path;
 use std::process::{Command, Output, Stdio};
 
 fn hueproof(dir: &Path, args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_hueproof"))
-        .args(args)
-        .current_dir(dir)
-        .env("NO_COLOR", "1")
-        .stdin(Stdio::null())
-        .output()
-        .unwrap()
+    common::hueproof_command(dir, args).output().unwrap()
 }
 
 /// A folder `specs/` with `n` copies of the choropleth template (c00 ...)
@@ -155,16 +149,7 @@ fn a_batch_goes_past_a_bad_figure_and_gives_the_same_bytes_for_every_job_count()
     // SARIF: one run for the whole batch, valid against the OASIS schema.
     let sarif: serde_json::Value = serde_json::from_slice(&runs[0].3[1]).unwrap();
     assert_eq!(sarif["runs"].as_array().unwrap().len(), 1);
-    let doc: serde_json::Value = serde_json::from_str(
-        &std::fs::read_to_string(common::fixture("sarif-schema-2.1.0.json")).unwrap(),
-    )
-    .unwrap();
-    let mut schemas = boon::Schemas::new();
-    let mut compiler = boon::Compiler::new();
-    compiler.enable_format_assertions();
-    let url = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json";
-    compiler.add_resource(url, doc).unwrap();
-    let index = compiler.compile(url, &mut schemas).unwrap();
+    let (schemas, index) = common::sarif_schema();
     if let Err(e) = schemas.validate(&sarif, index) {
         panic!("the batch SARIF log is not valid SARIF 2.1.0: {e}");
     }
@@ -205,16 +190,14 @@ fn an_interrupted_batch_leaves_only_complete_files() {
     let reference = files(&d.join("full"));
     assert_eq!(reference.len(), 20);
 
-    let mut child = Command::new(env!("CARGO_BIN_EXE_hueproof"))
-        .args(args("cut"))
-        .args(["--jobs", "1"])
-        .current_dir(&d)
-        .env("NO_COLOR", "1")
-        .stdin(Stdio::null())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .unwrap();
+    let mut cut_args = args("cut");
+    cut_args.extend(["--jobs".to_string(), "1".to_string()]);
+    let mut child =
+        common::hueproof_command(&d, &cut_args.iter().map(String::as_str).collect::<Vec<_>>())
+            .stdout(Stdio::piped())
+            .stderr(Stdio::piped())
+            .spawn()
+            .unwrap();
     // Interrupt once two figures are done (one progress line each).
     let mut stderr = BufReader::new(child.stderr.take().unwrap());
     let mut seen = String::new();
