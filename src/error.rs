@@ -10,6 +10,7 @@
 //! | 2 | bad input: a command-line argument, a colour, a file that cannot be read or parsed |
 //! | 3 | output could not be written |
 //! | 4 | internal error (a bug in hueproof; please report it) |
+//! | 130 | a batch run was interrupted (SIGINT or SIGTERM) |
 
 use std::fmt;
 use std::path::PathBuf;
@@ -27,6 +28,8 @@ pub enum ExitKind {
     OutputFailed,
     /// A bug in hueproof.
     Internal,
+    /// The run was interrupted (SIGINT or SIGTERM) before it finished.
+    Interrupted,
 }
 
 impl ExitKind {
@@ -38,6 +41,7 @@ impl ExitKind {
             ExitKind::BadInput => 2,
             ExitKind::OutputFailed => 3,
             ExitKind::Internal => 4,
+            ExitKind::Interrupted => 130,
         }
     }
 }

@@ -42,6 +42,8 @@
 //! - [`demo`]: the built-in demo dataset (an invented island, for the demo only).
 //! - [`sheet`]: the simulation contact sheet of audited figures (panels
 //!   per view with the findings marked, and an index of thumbnails).
+//! - [`batch`]: many inputs at once (globs, `--jobs`, progress, one
+//!   exit code, interruption) for `render` and `check`.
 //! - [`cli`]: the command line, a thin layer over the stages.
 //!
 //! An audit by hueproof is an aid to design and review. It is not a
@@ -51,6 +53,7 @@
 #![warn(missing_docs)]
 
 pub mod audit;
+pub mod batch;
 pub mod classify;
 pub mod cli;
 pub mod color;

@@ -48,6 +48,14 @@ pub fn write_atomic(path: &Path, bytes: &[u8]) -> Result<()> {
         let mut f = std::fs::File::create(&tmp)?;
         f.write_all(bytes)?;
         f.sync_all()?;
+        if crate::batch::interrupted() {
+            // An interrupted run starts no new file: the finished
+            // temporary file is removed below instead of renamed.
+            return Err(std::io::Error::new(
+                std::io::ErrorKind::Interrupted,
+                "the run was interrupted",
+            ));
+        }
         std::fs::rename(&tmp, path)
     })();
     if let Err(e) = result {

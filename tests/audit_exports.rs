@@ -11,7 +11,7 @@ mod common;
 
 use std::path::{Path, PathBuf};
 
-use common::{cli, fixture, scratch};
+use common::{cli, scratch};
 use hueproof::ExitKind;
 use hueproof::audit::{self, Options, Report};
 use hueproof::findings::Severity;
@@ -56,23 +56,8 @@ fn report_of(svg: &str) -> Report {
     audit::audit_svg(Path::new("fig.svg"), svg, &opt).unwrap()
 }
 
-/// The OASIS SARIF 2.1.0 schema (draft-04), compiled by `boon` with
-/// format assertions on (so `uri` and `uri-reference` are checked too).
-fn sarif_schema() -> (boon::Schemas, boon::SchemaIndex) {
-    let path = fixture("sarif-schema-2.1.0.json");
-    let doc: serde_json::Value =
-        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
-    let mut schemas = boon::Schemas::new();
-    let mut compiler = boon::Compiler::new();
-    compiler.enable_format_assertions();
-    let url = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json";
-    compiler.add_resource(url, doc).unwrap();
-    let index = compiler.compile(url, &mut schemas).unwrap();
-    (schemas, index)
-}
-
 fn assert_valid_sarif(log: &serde_json::Value) {
-    let (schemas, index) = sarif_schema();
+    let (schemas, index) = common::sarif_schema();
     if let Err(e) = schemas.validate(log, index) {
         panic!("not valid SARIF 2.1.0: {e:#}\n{log:#}");
     }
@@ -83,7 +68,7 @@ fn the_validator_rejects_logs_the_schema_forbids() {
     // Guards the schema check itself: logs that break the OASIS schema's
     // rules must fail (a level outside none|note|warning|error, a missing
     // required `runs`, a region line of 0, a URI with a space).
-    let (schemas, index) = sarif_schema();
+    let (schemas, index) = common::sarif_schema();
     let good = serde_json::json!({
         "version": "2.1.0",
         "runs": [{"tool": {"driver": {"name": "x"}}, "results": [{

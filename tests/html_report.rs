@@ -321,10 +321,19 @@ fn same_input_same_bytes_and_a_passing_figure_says_so() {
     assert!(a == b, "two runs differ");
     assert_eq!(json["passed"], true);
     assert!(a.contains("class=\"verdict pass\""));
-    assert!(
-        !a.contains("id=\"sheet\""),
-        "no contact sheet is passed yet"
+    // `check --html` embeds the contact sheet `hueproof sheet` draws for
+    // the same audit, byte for byte.
+    let spec = std::path::Path::new("sample-output/choropleth.toml");
+    let r = hueproof::render::render(hueproof::figure::load(spec).unwrap()).unwrap();
+    let opt = hueproof::audit::settings::for_figure(&r);
+    let examined = hueproof::audit::examine(spec, &r.svg, &opt).unwrap();
+    let sheet =
+        hueproof::sheet::sheet_png("sample-output/choropleth.toml", &examined, &opt).unwrap();
+    let uri = format!(
+        "data:image/png;base64,{}",
+        base64::engine::general_purpose::STANDARD.encode(&sheet)
     );
+    assert!(a.contains("<section id=\"sheet\">") && a.contains(&uri));
     let _ = std::fs::remove_dir_all(&d1);
     let _ = std::fs::remove_dir_all(&d2);
 }

@@ -571,8 +571,13 @@ fn unit_pt(root: roxmltree::Node) -> f64 {
 /// or carries no `data-class` marks (class detection for SVG from other
 /// tools is not available yet).
 pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
-    let doc = roxmltree::Document::parse(svg)
-        .map_err(|e| invalid(name, format!("not a readable SVG document: {e}")))?;
+    let doc = roxmltree::Document::parse(svg).map_err(|e| match e {
+        roxmltree::Error::DtdDetected => invalid(
+            name,
+            "not a readable SVG document: it has a document type declaration (<!DOCTYPE ...>), which is refused because its entities can expand without bound; remove the declaration".into(),
+        ),
+        e => invalid(name, format!("not a readable SVG document: {e}")),
+    })?;
     let root = doc.root_element();
     if root.tag_name().name() != "svg" {
         return Err(invalid(name, "expected an <svg> root element".into()));

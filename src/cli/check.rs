@@ -1,17 +1,19 @@
-//! `hueproof check SPEC|FIGURE.svg`: the measured audit of a figure, as
-//! text, JSON, SARIF, JUnit XML or an HTML page, with an exit code a build
-//! can act on.
+//! `hueproof check SPEC|FIGURE.svg...`: the measured audit of a figure,
+//! or of many at once (see [`crate::batch`]), as text, JSON, SARIF,
+//! JUnit XML or (one figure) an HTML page, with one exit code a build can
+//! act on.
 
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 
 use clap::{Args, ValueEnum};
 
-use crate::audit::{self, Options};
+use crate::audit::{self, Options, Report};
+use crate::batch;
 use crate::color::Srgb;
 use crate::error::{Error, ExitKind};
 use crate::figure::audit::VIEWING_DISTANCE_RANGE;
 use crate::findings::Severity;
-use crate::report::export::Exports;
+use crate::report::export::{BatchItem, Exports};
 use crate::report::html::HtmlInput;
 use crate::scheme::SchemeKind;
 use crate::vision;
@@ -69,7 +71,7 @@ impl AuditFlags {
     /// Apply the flags over `opt`.
     pub fn apply(&self, opt: &mut Options) -> Result<(), Error> {
         if let Some(v) = &self.views {
-            opt.views = vision::parse_views(v)?;
+            opt.views = vision::parse_views(v).map_err(|e| usage(format!("--views: {e}")))?;
         }
         if let Some(d) = self.viewing_distance {
             let (lo, hi) = VIEWING_DISTANCE_RANGE;
@@ -203,10 +205,15 @@ pub fn prepare(
 /// Arguments of `check`.
 #[derive(Debug, Args)]
 pub struct CheckArgs {
-    /// A figure spec (.toml, rendered first) or an SVG file (hueproof's
-    /// own, or made by any other tool).
-    #[arg(value_name = "SPEC|FIGURE.svg")]
-    pub input: PathBuf,
+    /// Figure specs (.toml, rendered first) or SVG files (hueproof's own,
+    /// or made by any other tool): paths or glob patterns (quoted, e.g.
+    /// 'figures/*.svg'), expanded by hueproof, sorted.
+    #[arg(value_name = "SPEC|FIGURE.svg", required = true, num_args = 1..)]
+    pub inputs: Vec<String>,
+    /// With several inputs: how many figures to audit at once (default:
+    /// the number of cores).
+    #[arg(long, value_name = "N")]
+    pub jobs: Option<usize>,
     /// Views, distance, resolution, fail level and thresholds.
     #[command(flatten)]
     pub audit: AuditFlags,
@@ -239,24 +246,134 @@ fn usage(message: String) -> Error {
     }
 }
 
-/// Run `check`.
+/// One audited input.
+struct Checked {
+    report: Report,
+    /// The input, then every file it read.
+    inputs: Vec<PathBuf>,
+    fail_on: Severity,
+    /// The proposed palette, described (specs only).
+    extra: String,
+    warnings: Vec<String>,
+    /// The HTML page, when asked for (one input only).
+    page: Option<String>,
+}
+
+impl Checked {
+    fn kind(&self) -> ExitKind {
+        if self.report.passed {
+            ExitKind::Success
+        } else {
+            ExitKind::Findings
+        }
+    }
+}
+
+/// Run `check`: one input as before, several as a batch.
 pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
-    let exports = Exports::new(args.json, args.sarif, args.junit, args.html)?;
+    let exports = Exports::new(
+        args.json.clone(),
+        args.sarif.clone(),
+        args.junit.clone(),
+        args.html.clone(),
+    )?;
+    let jobs = batch::jobs(args.jobs)?;
+    let inputs = batch::expand(&args.inputs)?;
+    if inputs.len() > 1 && args.html.is_some() {
+        return Err(usage(format!(
+            "--html makes the page of one figure, and {} inputs were given: check them one at a time for their pages, or draw them all with `hueproof sheet`",
+            inputs.len()
+        )));
+    }
+    batch::catch_interrupts();
+    if let [input] = inputs.as_slice() {
+        return unless_interrupted(check_one(&args, input).and_then(|c| {
+            let stdout = match exports.write(&c.inputs, &c.report, c.fail_on, c.page.as_deref())? {
+                Some(export) => export,
+                None => audit::text::render_with(&c.report, &c.extra),
+            };
+            let mut out = Outcome::success(stdout);
+            out.kind = c.kind();
+            out.warnings = c.warnings;
+            Ok(out)
+        }));
+    }
+    let done = batch::run(
+        &inputs,
+        jobs,
+        batch::Progress::for_stderr(),
+        |input| check_one(&args, input),
+        |r| match r {
+            Ok(c) if c.report.passed => "passed".into(),
+            Ok(_) => "FAILED".into(),
+            Err(e) => format!("not audited: {e}"),
+        },
+    )?;
+    let items: Vec<BatchItem> = done
+        .iter()
+        .map(|f| BatchItem {
+            input: &f.input,
+            result: f.result.as_ref().map(|r| {
+                r.as_ref()
+                    .map(|c| (c.inputs.as_slice(), &c.report, c.fail_on))
+            }),
+        })
+        .collect();
+    let export = exports.write_many(&items)?;
+    let c = batch::combine(done, |c| {
+        let kind = c.kind();
+        (
+            audit::text::render_with(&c.report, &c.extra),
+            c.warnings,
+            kind,
+        )
+    });
+    let summary = c.summary.line("passed");
+    let stdout = match export {
+        Some(export) => {
+            // The export owns standard output; the counts go beside it.
+            eprint!("{summary}");
+            export
+        }
+        None => c.text + &summary,
+    };
+    Ok(Outcome {
+        stdout,
+        warnings: c.warnings,
+        kind: c.summary.exit_kind(),
+    })
+}
+
+/// An interrupted single-input run ends with the interrupted class (130),
+/// whatever became of its one input.
+pub(super) fn unless_interrupted(r: Result<Outcome, Error>) -> Result<Outcome, Error> {
+    if !batch::interrupted() {
+        return r;
+    }
+    Ok(Outcome {
+        stdout: String::new(),
+        warnings: vec!["interrupted: nothing more was written".into()],
+        kind: ExitKind::Interrupted,
+    })
+}
+
+/// Audit one input.
+fn check_one(args: &CheckArgs, input: &Path) -> Result<Checked, Error> {
     let Prepared {
         svg,
         opt,
         rendered,
         inputs,
-    } = prepare(&args.input, &args.audit, &args.svg, "check")?;
-    // The page shows the contact sheet, which needs the audit's rasters:
-    // kept only when the page is asked for.
-    let (mut report, sheet_png) = if exports.html.is_some() {
-        let examined = audit::examine(&args.input, &svg, &opt)?;
-        let title = args.input.display().to_string();
+    } = prepare(input, &args.audit, &args.svg, "check")?;
+    // The HTML page shows the contact sheet, which needs the audit's
+    // rasters: they are kept only when the page is asked for.
+    let (mut report, sheet_png) = if args.html.is_some() {
+        let examined = audit::examine(input, &svg, &opt)?;
+        let title = input.display().to_string();
         let png = crate::sheet::sheet_png(&title, &examined, &opt)?;
         (examined.report, Some(png))
     } else {
-        (audit::audit_svg(&args.input, &svg, &opt)?, None)
+        (audit::audit_svg(input, &svg, &opt)?, None)
     };
     let mut extra = String::new();
     if let Some(r) = &rendered {
@@ -264,41 +381,47 @@ pub fn run(args: CheckArgs) -> Result<Outcome, Error> {
         extra = audit::propose::describe(r, &report, &opt, report.repair.as_ref());
     }
     // The page is made only when asked: it draws the figure again.
-    let join = match (&rendered, &exports.html) {
-        (Some(r), Some(_)) => crate::report::html::join_of(r)?,
-        _ => None,
+    let page = match args.html {
+        Some(_) => {
+            let join = match &rendered {
+                Some(r) => crate::report::html::join_of(r)?,
+                None => None,
+            };
+            Some(crate::report::html::render(&HtmlInput {
+                input,
+                report: &report,
+                svg: &svg,
+                background: rendered
+                    .as_ref()
+                    .map_or(Srgb::new(1.0, 1.0, 1.0), |r| r.figure.page.background),
+                rendered: rendered.as_ref(),
+                join: join.as_ref(),
+                proposal: &extra,
+                sheet_png: sheet_png.as_deref(),
+            })?)
+        }
+        None => None,
     };
-    let page = HtmlInput {
-        input: &args.input,
-        report: &report,
-        svg: &svg,
-        background: rendered
-            .as_ref()
-            .map_or(Srgb::new(1.0, 1.0, 1.0), |r| r.figure.page.background),
-        rendered: rendered.as_ref(),
-        join: join.as_ref(),
-        proposal: &extra,
-        sheet_png: sheet_png.as_deref(),
-    };
-    let stdout = match exports.write(&inputs, &report, opt.fail_on, Some(&page))? {
-        Some(export) => export,
-        None => audit::text::render_with(&report, &extra),
-    };
-    let mut out = Outcome::success(stdout);
-    if !report.passed {
-        out.kind = ExitKind::Findings;
-    }
+    // The figure's own warnings (repaired shapes, merged classes...).
+    let mut warnings = rendered.map(|r| r.warnings).unwrap_or_default();
     for r in &report.refused_references {
-        out.warnings.push(format!(
+        warnings.push(format!(
             "{}: the reference '{r}' points outside the document and was not read; what it would draw was not audited",
-            args.input.display()
+            input.display()
         ));
     }
     if opt.scheme.is_none() {
-        out.warnings.push(
+        warnings.push(
             "the SVG does not say its kind of scheme: order, glare and midpoint were not judged (give --scheme)"
                 .into(),
         );
     }
-    Ok(out)
+    Ok(Checked {
+        report,
+        inputs,
+        fail_on: opt.fail_on,
+        extra,
+        warnings,
+        page,
+    })
 }

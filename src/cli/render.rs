@@ -1,10 +1,12 @@
-//! `hueproof render SPEC`: a figure spec rendered to SVG, PNG and PDF.
+//! `hueproof render SPEC...`: figure specs rendered to SVG, PNG and PDF,
+//! one at a time or many at once (see [`crate::batch`]).
 
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 
 use clap::Args;
 
 use crate::audit;
+use crate::batch;
 use crate::error::{Error, ExitKind};
 use crate::figure::{self, Format};
 use crate::render;
@@ -14,14 +16,20 @@ use super::Outcome;
 /// Arguments of `render`.
 #[derive(Debug, Args)]
 pub struct RenderArgs {
-    /// The figure spec (TOML).
-    #[arg(value_name = "SPEC")]
-    pub spec: PathBuf,
+    /// The figure specs (TOML): paths or glob patterns (quoted, e.g.
+    /// 'maps/*.toml'), expanded by hueproof, sorted.
+    #[arg(value_name = "SPEC", required = true, num_args = 1..)]
+    pub specs: Vec<String>,
     /// Output path; its extension is replaced per format (default: the
     /// spec's path). With a .svg, .png or .pdf extension and no --format,
-    /// only that format is written.
+    /// only that format is written. With several specs: a folder (made if
+    /// missing) that gets one set of files per spec, named after it.
     #[arg(short, long, value_name = "OUT")]
     pub output: Option<PathBuf>,
+    /// With several specs: how many figures to work on at once (default:
+    /// the number of cores).
+    #[arg(long, value_name = "N")]
+    pub jobs: Option<usize>,
     /// Comma-separated formats: svg, png, pdf (default: the spec's
     /// figure.formats, else svg).
     #[arg(long, value_name = "LIST")]
@@ -53,12 +61,62 @@ pub fn parse_formats(list: &str) -> Result<Vec<Format>, Error> {
     Ok(out)
 }
 
-/// Run `render`.
+/// Run `render`: one spec as before, several as a batch.
 pub fn run(args: RenderArgs) -> Result<Outcome, Error> {
-    let fig = figure::load(&args.spec)?;
-    let ext_format = args
-        .output
-        .as_ref()
+    let jobs = batch::jobs(args.jobs)?;
+    let specs = batch::expand(&args.specs)?;
+    batch::catch_interrupts();
+    if let [spec] = specs.as_slice() {
+        return super::check::unless_interrupted(render_one(&args, spec, args.output.as_deref()));
+    }
+    if let Some(f) = &args.format {
+        parse_formats(f)?;
+    }
+    let base_of = |spec: &Path| match &args.output {
+        Some(dir) => dir.join(spec.file_name().unwrap_or(spec.as_os_str())),
+        None => spec.to_path_buf(),
+    };
+    batch::refuse_shared_outputs(&specs, |s| base_of(s).with_extension(""))?;
+    if let Some(dir) = &args.output {
+        if dir.is_file() {
+            return Err(Error::Usage {
+                what: "-o".into(),
+                message: format!(
+                    "'{}' is a file; with several specs -o names a folder",
+                    dir.display()
+                ),
+            });
+        }
+        std::fs::create_dir_all(dir).map_err(|source| Error::Write {
+            path: dir.clone(),
+            source,
+        })?;
+    }
+    let done = batch::run(
+        &specs,
+        jobs,
+        batch::Progress::for_stderr(),
+        |spec| render_one(&args, spec, Some(&base_of(spec))),
+        |r| match r {
+            Ok(o) if o.kind == ExitKind::Success => "written".into(),
+            Ok(_) => "written; the audit FAILED".into(),
+            Err(e) => format!("not rendered: {e}"),
+        },
+    )?;
+    let c = batch::combine(done, |o: Outcome| (o.stdout, o.warnings, o.kind));
+    let mut stdout = c.text;
+    stdout.push_str(&c.summary.line("written"));
+    Ok(Outcome {
+        stdout,
+        warnings: c.warnings,
+        kind: c.summary.exit_kind(),
+    })
+}
+
+/// Render one spec to `output` (None: beside the spec).
+fn render_one(args: &RenderArgs, spec: &Path, output: Option<&Path>) -> Result<Outcome, Error> {
+    let fig = figure::load(spec)?;
+    let ext_format = output
         .and_then(|o| o.extension())
         .and_then(|e| Format::parse(&e.to_string_lossy()));
     let formats = match (&args.format, ext_format) {
@@ -66,14 +124,14 @@ pub fn run(args: RenderArgs) -> Result<Outcome, Error> {
         (None, Some(f)) => vec![f],
         (None, None) => fig.formats.clone(),
     };
-    let base = args.output.clone().unwrap_or_else(|| args.spec.clone());
+    let base = output.unwrap_or(spec).to_path_buf();
     let mut rendered = render::render(fig)?;
     let mut stdout = String::new();
     let mut report = None;
     if !args.no_audit {
         let mut opt = audit::settings::for_figure(&rendered);
         args.audit.apply(&mut opt)?;
-        let mut first = audit::audit_svg(&args.spec, &rendered.svg, &opt)?;
+        let mut first = audit::audit_svg(spec, &rendered.svg, &opt)?;
         if args.repair && !first.passed {
             match audit::propose::propose(&rendered, &first, &opt)? {
                 Some(p) => {
@@ -96,7 +154,7 @@ pub fn run(args: RenderArgs) -> Result<Outcome, Error> {
                             .map_err(|e| Error::Internal(format!("a proposed colour: {e}")))?,
                     );
                     rendered = render::render(fig)?;
-                    first = audit::audit_svg(&args.spec, &rendered.svg, &opt)?;
+                    first = audit::audit_svg(spec, &rendered.svg, &opt)?;
                 }
                 None => stdout.push_str(
                     "the audit failed and no palette repair applies; drawing the spec's colours\n",
@@ -118,7 +176,7 @@ pub fn run(args: RenderArgs) -> Result<Outcome, Error> {
         if !report.findings.is_empty() {
             stdout.push_str(&format!(
                 "the full report: hueproof check {}\n",
-                args.spec.display()
+                spec.display()
             ));
         }
         if !report.passed {

@@ -348,6 +348,17 @@ fn numeric(
     no_data: Class,
     warnings: &mut Vec<String>,
 ) -> Result<Encoding, Error> {
+    if numbers.is_empty() {
+        // Name the spec and the column rather than the classifier's input.
+        return Err(Error::Invalid {
+            path: fig.spec_path.clone(),
+            location: Some("key data.value".into()),
+            message: format!(
+                "the column '{}' gives no number to colour by: all {missing} item(s) of the figure are missing; expected at least one number",
+                fig.variable.column.as_deref().unwrap_or("?")
+            ),
+        });
+    }
     let sample = Sample::new(numbers.to_vec(), missing)?;
     let mid = fig.variable.midpoint;
     let Some(method) = &fig.classes.method else {

@@ -319,7 +319,7 @@ pub fn build(file: &SpecFile) -> Result<Figure, Error> {
                     let v = parse_number(text).map_err(|e| Error::Invalid {
                         path: table_path.clone(),
                         location: Some(format!("line {line}, column '{}'", table.headers[vc])),
-                        message: format!("'{text}' is not a number ({e}); data.level is {}, so every value must be a number or a missing marker", level.name()),
+                        message: format!("{e}; data.level is {}, so every value must be a number or a missing marker", level.name()),
                     })?;
                     Value::Number(v)
                 } else {
@@ -701,6 +701,16 @@ fn read_layer(
         object,
     )?;
     layer.require_clean(&path)?;
+    // Repairs are never silent: the file is not what RFC 7946 asks for.
+    for p in layer.problems.iter().filter(|p| p.repaired) {
+        cx.warnings.push(format!(
+            "{}: feature {} ('{}'): {}",
+            path.display(),
+            p.feature,
+            p.key,
+            p.message()
+        ));
+    }
     cx.inputs.push(path);
     Ok(layer)
 }
@@ -791,7 +801,7 @@ fn map_items(
                 parse_number(&r.cells[col]).map_err(|e| Error::Invalid {
                     path: table.path.clone(),
                     location: Some(format!("line {}, column '{}'", r.line, table.headers[col])),
-                    message: format!("'{}' is not a number ({e}); expected degrees", r.cells[col]),
+                    message: format!("{e}; expected degrees"),
                 })
             };
             let (x, y) = (read(lon)?, read(lat)?);
@@ -1007,7 +1017,7 @@ fn plot_items(
         parse_number(t).map(Some).map_err(|e| Error::Invalid {
             path: table.path.clone(),
             location: Some(format!("line {}, column '{}'", r.line, table.headers[col])),
-            message: format!("'{t}' is not a number ({e})"),
+            message: e.to_string(),
         })
     };
     let mut skipped = 0;

@@ -15,6 +15,10 @@ pub fn read_topojson_str(
     object: Option<&str>,
     options: &ReadOptions,
 ) -> std::result::Result<Layer, String> {
+    // JSON first, so a syntax error names its line and column.
+    if let Err(e) = serde_json::from_str::<serde::de::IgnoredAny>(text) {
+        return Err(format!("not valid TopoJSON: not well-formed JSON: {e}"));
+    }
     let topo: topojson::TopoJson = text
         .parse()
         .map_err(|e| format!("not valid TopoJSON: {e}"))?;

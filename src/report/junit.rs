@@ -40,27 +40,36 @@ fn details(f: &AuditFinding) -> String {
 /// One JUnit XML document of `inputs`; findings at or above `fail_on`
 /// are failures.
 pub fn render(inputs: &[Audited], fail_on: Severity) -> String {
-    let failing = |a: &Audited| {
+    render_each(inputs, &vec![fail_on; inputs.len()])
+}
+
+/// One JUnit XML document of `inputs`, each with its own fail level
+/// (`fail_on[i]` for `inputs[i]`, as a batch of specs may set them apart).
+pub fn render_each(inputs: &[Audited], fail_on: &[Severity]) -> String {
+    let level_of = |i: usize| fail_on.get(i).copied().unwrap_or(Severity::Error);
+    let failing = |i: usize, a: &Audited| {
         a.report
             .findings
             .iter()
-            .filter(|f| f.severity >= fail_on)
+            .filter(|f| f.severity >= level_of(i))
             .count()
     };
     let tests: usize = inputs.iter().map(|a| 1 + a.report.findings.len()).sum();
     let failures: usize = inputs
         .iter()
-        .map(|a| failing(a) + usize::from(failing(a) > 0))
+        .enumerate()
+        .map(|(i, a)| failing(i, a) + usize::from(failing(i, a) > 0))
         .sum();
     let mut x = String::from("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n");
     let _ = writeln!(
         x,
         "<testsuites name=\"hueproof\" tests=\"{tests}\" failures=\"{failures}\" errors=\"0\">"
     );
-    for a in inputs {
+    for (i, a) in inputs.iter().enumerate() {
+        let fail_on = level_of(i);
         let r = a.report;
         let path = escape(&a.path);
-        let n_fail = failing(a);
+        let n_fail = failing(i, a);
         let _ = writeln!(
             x,
             "  <testsuite name=\"{path}\" tests=\"{}\" failures=\"{}\" errors=\"0\" skipped=\"0\">",

@@ -122,9 +122,10 @@ fn table_at(text: &str, offset: usize) -> Option<String> {
 fn explain(text: &str, e: &toml::de::Error) -> String {
     let msg = e.message().trim().to_string();
     let Some(rest) = msg.strip_prefix("unknown field `") else {
-        return msg
-            .replace("missing field", "missing key")
-            .replace('`', "'");
+        return plain_types(
+            &msg.replace("missing field", "missing key")
+                .replace('`', "'"),
+        );
     };
     let Some((word, tail)) = rest.split_once('`') else {
         return msg;
@@ -141,6 +142,31 @@ fn explain(text: &str, e: &toml::de::Error) -> String {
     }
     if !known.is_empty() {
         out.push_str(&format!(" Known keys: {}.", known.join(", ")));
+    }
+    out
+}
+
+/// serde's names of Rust types in a message, in words for the user.
+fn plain_types(msg: &str) -> String {
+    let mut out = msg.to_string();
+    for (rust, plain) in [
+        ("expected usize", "expected a whole number, 0 or more"),
+        ("expected u64", "expected a whole number, 0 or more"),
+        ("expected u32", "expected a whole number, 0 or more"),
+        ("expected u16", "expected a whole number, 0 or more"),
+        ("expected u8", "expected a whole number, 0 or more"),
+        ("expected i64", "expected a whole number"),
+        ("expected i32", "expected a whole number"),
+        ("expected f64", "expected a number"),
+        ("expected f32", "expected a number"),
+    ] {
+        if let Some(i) = out.find(rust) {
+            // Only whole words: `u8` must not match inside a longer name.
+            let end = i + rust.len();
+            if !out[end..].starts_with(|c: char| c.is_ascii_alphanumeric()) {
+                out.replace_range(i..end, plain);
+            }
+        }
     }
     out
 }

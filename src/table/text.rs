@@ -46,6 +46,13 @@ impl TextTable {
             .iter()
             .map(|h| h.trim().to_string())
             .collect();
+        if headers.iter().all(String::is_empty) {
+            return Err(invalid(
+                Some("line 1".into()),
+                "the file is empty; expected a header row naming the columns, then one row per record"
+                    .into(),
+            ));
+        }
         let mut rows = Vec::new();
         for rec in rdr.records() {
             let rec = rec.map_err(|e| {

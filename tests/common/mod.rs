@@ -100,3 +100,29 @@ pub fn scratch(suite: &str, name: &str) -> PathBuf {
     std::fs::create_dir_all(&d).unwrap();
     d
 }
+
+/// The OASIS SARIF 2.1.0 schema (draft-04), compiled by `boon` with
+/// format assertions on (so `uri` and `uri-reference` are checked too).
+pub fn sarif_schema() -> (boon::Schemas, boon::SchemaIndex) {
+    let path = fixture("sarif-schema-2.1.0.json");
+    let doc: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&path).unwrap()).unwrap();
+    let mut schemas = boon::Schemas::new();
+    let mut compiler = boon::Compiler::new();
+    compiler.enable_format_assertions();
+    let url = "https://docs.oasis-open.org/sarif/sarif/v2.1.0/errata01/os/schemas/sarif-schema-2.1.0.json";
+    compiler.add_resource(url, doc).unwrap();
+    let index = compiler.compile(url, &mut schemas).unwrap();
+    (schemas, index)
+}
+
+/// The `hueproof` binary, to run in `dir` with `args`: NO_COLOR set (plain
+/// progress lines) and no standard input.
+pub fn hueproof_command(dir: &std::path::Path, args: &[&str]) -> std::process::Command {
+    let mut c = std::process::Command::new(env!("CARGO_BIN_EXE_hueproof"));
+    c.args(args)
+        .current_dir(dir)
+        .env("NO_COLOR", "1")
+        .stdin(std::process::Stdio::null());
+    c
+}
