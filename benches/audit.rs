@@ -19,8 +19,12 @@
 //! `cargo bench --bench audit`; `-- --once` runs the audit once and
 //! prints its summary (for a profiler: `perf record ... --bench --once`).
 
+mod common;
+
 use std::path::{Path, PathBuf};
-use std::time::{Duration, Instant};
+use std::time::Duration;
+
+use common::{Results, ms, stats, time};
 
 use hueproof::audit::{self, Options, TEXT_MARGIN_PX, labels, measure};
 use hueproof::color::Srgb;
@@ -94,29 +98,12 @@ fn figure_svg() -> (String, Srgb) {
     (r.svg, bg)
 }
 
-fn time<T>(f: impl FnOnce() -> T) -> (Duration, T) {
-    let t = Instant::now();
-    let v = f();
-    (t.elapsed(), v)
-}
-
-/// Median and minimum of a set of timings.
-fn stats(mut t: Vec<Duration>) -> (Duration, Duration) {
-    t.sort();
-    (t[t.len() / 2], t[0])
-}
-
-fn ms(d: Duration) -> f64 {
-    d.as_secs_f64() * 1e3
-}
-
 fn ratio(a: Duration, b: Duration) -> f64 {
     a.as_secs_f64() / b.as_secs_f64()
 }
 
 fn main() {
-    if !std::env::args().any(|a| a == "--bench") {
-        println!("audit: run with `cargo bench --bench audit`");
+    if !common::benchmarking("audit") {
         return;
     }
     let name = Path::new("bench.svg");
@@ -174,27 +161,11 @@ fn main() {
         ta.push(time(|| std::hint::black_box(run_audit())).0);
         t1.push(one.install(|| time(|| std::hint::black_box(run_audit())).0));
     }
-    let (r_med, r_min) = stats(tr);
-    let (a_med, a_min) = stats(ta);
-    let (a1_med, a1_min) = stats(t1);
-    println!(
-        "  {:<34} {:>10} {:>10} {:>12} {:>10}",
-        "", "median ms", "min ms", "ratio(med)", "ratio(min)"
-    );
-    for (label, med, min) in [
-        ("resvg raster (baseline)", r_med, r_min),
-        ("full audit, 5 views", a_med, a_min),
-        ("full audit, one thread", a1_med, a1_min),
-    ] {
-        println!(
-            "  {label:<34} {:>10.1} {:>10.1} {:>12.2} {:>10.2}",
-            ms(med),
-            ms(min),
-            ratio(med, r_med),
-            ratio(min, r_min)
-        );
-    }
-    println!("  aim: the full audit at most 1.3 x the raster");
+    let r_min = stats(&tr).1;
+    let mut results = Results::new("audit", "resvg raster", tr);
+    results.row("full audit, 5 views", ta);
+    results.row("full audit, one thread", t1);
+    results.print("the full audit at most 1.3 x the raster");
 
     // The stages on their own (each once per run, minimum kept), for
     // seeing where the time goes.
