@@ -80,19 +80,23 @@ fn main() {
     // the baseline and the method alike.
     let (mut ts, mut tn, mut t1, mut tf) = (vec![], vec![], vec![], vec![]);
     for _ in 0..RUNS {
-        ts.push(time(|| {
-            let mut v = values.clone();
-            v.sort_unstable_by(f64::total_cmp);
-            std::hint::black_box(&v);
-        })
-        .0);
+        ts.push(
+            time(|| {
+                let mut v = values.clone();
+                v.sort_unstable_by(f64::total_cmp);
+                std::hint::black_box(&v);
+            })
+            .0,
+        );
         tn.push(time(natural_run).0);
         t1.push(one.install(|| time(natural_run).0));
-        tf.push(time(|| {
-            let s = Sample::new(values.clone(), 0).unwrap();
-            std::hint::black_box(classify::classify(&s, &method, 20).unwrap());
-        })
-        .0);
+        tf.push(
+            time(|| {
+                let s = Sample::new(values.clone(), 0).unwrap();
+                std::hint::black_box(classify::classify(&s, &method, 20).unwrap());
+            })
+            .0,
+        );
     }
     let s = Sample::new(values.clone(), 0).unwrap();
     let c = classify::classify(&s, &method, 20).unwrap();

@@ -100,7 +100,10 @@ fn child_pipeline(spec: &Path, dpi: f64) {
     println!("load {} {}", t.as_secs_f64(), peak());
     let (t, enc) = time(|| encode::encode(&fig).unwrap());
     println!("encode {} {}", t.as_secs_f64(), peak());
-    assert_eq!(enc.classification.as_ref().map(|c| c.counts.len()), Some(CLASSES));
+    assert_eq!(
+        enc.classification.as_ref().map(|c| c.counts.len()),
+        Some(CLASSES)
+    );
     let (t, scene) = time(|| {
         let title = describe::title(&fig);
         let description = describe::describe(&fig, &enc);
@@ -131,7 +134,11 @@ fn child_generic(geojson: &Path) {
         let v: serde_json::Value = serde_json::from_slice(&bytes).unwrap();
         v["features"].as_array().map_or(0, |a| a.len())
     });
-    println!("generic {} {} {n}", t.as_secs_f64(), common::peak_bytes().unwrap_or(0));
+    println!(
+        "generic {} {} {n}",
+        t.as_secs_f64(),
+        common::peak_bytes().unwrap_or(0)
+    );
 }
 
 fn run_child(args: &[&str], path: &Path) -> Vec<Vec<String>> {
@@ -182,9 +189,11 @@ fn main() {
     let secs = |s: &str| Duration::from_secs_f64(s.parse().unwrap());
     assert_eq!(base[0][3], n.to_string());
     let lines = run_child(&["--child", "pipeline"], &spec);
-    let mut results = Results::new("scale", "serde_json::Value parse of the GeoJSON", vec![
-        secs(&base[0][1]),
-    ]);
+    let mut results = Results::new(
+        "scale",
+        "serde_json::Value parse of the GeoJSON",
+        vec![secs(&base[0][1])],
+    );
     let mut total = Duration::ZERO;
     let mut peak = 0u64;
     println!("  {:<10} {:>9} {:>22}", "stage", "s", "peak RSS so far, MB");
@@ -192,7 +201,12 @@ fn main() {
         let t = secs(&l[1]);
         total += t;
         peak = l[2].parse().unwrap();
-        println!("  {:<10} {:>9.2} {:>22.0}", l[0], t.as_secs_f64(), peak as f64 / 1e6);
+        println!(
+            "  {:<10} {:>9.2} {:>22.0}",
+            l[0],
+            t.as_secs_f64(),
+            peak as f64 / 1e6
+        );
         let label = match l[0].as_str() {
             "load" => "load: read, validate, join, project",
             "encode" => "encode: quantile classes, palette",
@@ -214,7 +228,11 @@ fn main() {
         peak as f64 / size as f64,
         base[0][2].parse::<f64>().unwrap() / 1e6
     );
-    println!("table-peak: {:.0} MB ({:.2} x the GeoJSON file)", peak as f64 / 1e6, peak as f64 / size as f64);
+    println!(
+        "table-peak: {:.0} MB ({:.2} x the GeoJSON file)",
+        peak as f64 / 1e6,
+        peak as f64 / size as f64
+    );
     results.print("");
     let _ = std::fs::remove_dir_all(&dir);
 }

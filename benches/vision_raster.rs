@@ -119,7 +119,10 @@ fn main() {
         copies.extend(copy);
         rows.push((format!("{name}, tritanopia, rayon"), par));
         let best = rows[0].1.iter().min().unwrap().as_secs_f64();
-        println!("  {name}: protanopia on one core {:.1} Mpixel/s", pixels / best / 1e6);
+        println!(
+            "  {name}: protanopia on one core {:.1} Mpixel/s",
+            pixels / best / 1e6
+        );
         let mut results = Results::new("vision_raster", &format!("{name}, copy"), copies);
         for (label, t) in rows {
             results.row(&label, t);

@@ -161,7 +161,14 @@ pub fn svg_audit(data: &[u8]) -> Result<(), Error> {
 
 /// The targets by name (the names of `fuzz/fuzz_targets/*.rs` and of the
 /// corpus folders), each with its entry point.
-pub const TARGETS: [&str; 6] = ["spec", "geojson", "topojson", "csv_join", "color", "svg_audit"];
+pub const TARGETS: [&str; 6] = [
+    "spec",
+    "geojson",
+    "topojson",
+    "csv_join",
+    "color",
+    "svg_audit",
+];
 
 /// Run target `name` on `data`; `fixtures` is `tests/fixtures`.
 /// Panics on an unknown name.

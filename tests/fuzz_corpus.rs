@@ -57,13 +57,20 @@ fn every_corpus_and_regression_input_ends_in_ok_or_a_user_error() {
                         "color" => !message.is_empty(),
                         _ => message.contains("fuzz."),
                     };
-                    assert!(named, "{target} {}: unnamed input: {message}", file.display());
+                    assert!(
+                        named,
+                        "{target} {}: unnamed input: {message}",
+                        file.display()
+                    );
                 }
             }
         }
         // The seeds include valid inputs, so a reader that refused
         // everything would fail here.
-        assert!(ok > 0, "{target}: no input was accepted ({refused} refused)");
+        assert!(
+            ok > 0,
+            "{target}: no input was accepted ({refused} refused)"
+        );
     }
 }
 
@@ -76,4 +83,13 @@ fn the_seed_figures_render_from_the_fixture_data() {
         let data = std::fs::read(root().join("fuzz/corpus/spec").join(seed)).unwrap();
         fuzzing::spec(&data, &fixtures).unwrap_or_else(|e| panic!("{seed}: {e}"));
     }
+}
+
+#[test]
+fn a_topojson_arc_reference_past_the_last_arc_is_refused_not_a_panic() {
+    // Found by the topojson target: the decoder indexed arcs unchecked.
+    let data = std::fs::read(root().join("fuzz/regressions/topojson/arc-index-out-of-range.json"))
+        .unwrap();
+    let e = fuzzing::topojson(&data).unwrap_err();
+    assert!(e.to_string().contains("refers to arc"), "{e}");
 }

@@ -82,7 +82,10 @@ fn an_external_entity_naming_a_local_file_is_never_read() {
     match audit::audit_svg(Path::new("xxe.svg"), &svg, &options()) {
         Ok(r) => {
             let ids: Vec<&str> = r.classes.iter().map(|c| c.id.as_str()).collect();
-            assert!(!ids.contains(&"#ff0000"), "the local file was read: {ids:?}");
+            assert!(
+                !ids.contains(&"#ff0000"),
+                "the local file was read: {ids:?}"
+            );
         }
         Err(e) => {
             assert_eq!(e.exit_kind(), ExitKind::BadInput, "{e}");
@@ -90,4 +93,20 @@ fn an_external_entity_naming_a_local_file_is_never_read() {
         }
     }
     let _ = std::fs::remove_dir_all(&dir);
+}
+
+#[test]
+fn the_public_svg_doctype_without_entities_is_audited() {
+    // The document type declaration of SVG 1.1 (W3C SVG 1.1 Second
+    // Edition, section 1.3), which many tools write: allowed, and its DTD
+    // address is never fetched.
+    let svg = r##"<?xml version="1.0" standalone="no"?>
+<!DOCTYPE svg PUBLIC "-//W3C//DTD SVG 1.1//EN" "http://www.w3.org/Graphics/SVG/1.1/DTD/svg11.dtd">
+<svg xmlns="http://www.w3.org/2000/svg" width="100pt" height="100pt" viewBox="0 0 100 100">
+<rect fill="white" width="100" height="100"/>
+<rect fill="#3060a0" width="50" height="50"/>
+</svg>"##;
+    let r = audit::audit_svg(Path::new("public.svg"), svg, &options()).unwrap();
+    let ids: Vec<&str> = r.classes.iter().map(|c| c.id.as_str()).collect();
+    assert_eq!(ids, ["#3060a0"]);
 }
