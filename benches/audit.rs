@@ -21,15 +21,13 @@
 
 mod common;
 
-use std::path::{Path, PathBuf};
+use std::path::Path;
 use std::time::Duration;
 
 use common::{Results, ms, stats, time};
 
 use hueproof::audit::{self, Options, TEXT_MARGIN_PX, labels, measure};
 use hueproof::color::Srgb;
-use hueproof::geo::generate::Grid;
-use hueproof::random::SplitMix64;
 use hueproof::scheme::SchemeKind;
 use hueproof::vision::Simulation;
 use hueproof::{figure, raster, render};
@@ -39,58 +37,18 @@ const CLASSES: usize = 6;
 const DPI: f64 = 300.0;
 const RUNS: usize = 7;
 
-/// Write the boundaries, the table and the spec into `dir`; the spec path.
-fn write_inputs(dir: &Path) -> PathBuf {
-    std::fs::create_dir_all(dir).unwrap();
-    let grid = Grid::new(SHAPES, 4, 0x0A0D_17ED);
-    std::fs::write(dir.join("cells.geojson"), grid.geojson()).unwrap();
-    // A smooth field over the grid plus noise, so neighbours tend to share
-    // a class as on a real map, but not always.
-    let mut rng = SplitMix64(0x7AB1_E5EE_D000_0003);
-    let mut csv = String::from("code,value\n");
-    for c in 0..SHAPES {
-        let (x, y) = ((c % grid.nx) as f64, (c / grid.nx) as f64);
-        let field = (x * 0.11).sin() + (y * 0.13).cos() + 0.5 * ((x + y) * 0.05).sin();
-        let v = 100.0 * (0.5 * field + 0.4 * (rng.uniform() - 0.5)).exp();
-        csv.push_str(&format!("C{c},{v:.2}\n"));
-    }
-    std::fs::write(dir.join("values.csv"), csv).unwrap();
-    let spec = format!(
-        r#"[figure]
-kind = "choropleth"
-width = "183mm"
-height = "120mm"
-title = "Invented index by cell"
-subtitle = "{SHAPES} cells, quantile classes"
-source = "Generated for the benchmark (invented)"
-dpi = {DPI}
-
-[data]
-table = "values.csv"
-key = "code"
-value = "value"
-level = "ratio"
-label = "Index"
-
-[map]
-shapes = "cells.geojson"
-shape_key = "code"
-border_color = "white"
-border_width = "0.2pt"
-
-[classes]
-method = "quantile"
-count = {CLASSES}
-"#
-    );
-    let p = dir.join("bench.toml");
-    std::fs::write(&p, spec).unwrap();
-    p
-}
-
 fn figure_svg() -> (String, Srgb) {
     let dir = std::env::temp_dir().join(format!("hueproof-bench-audit-{}", std::process::id()));
-    let spec = write_inputs(&dir);
+    let spec = common::GridFigure {
+        cells: SHAPES,
+        per_border: 4,
+        seeds: (0x0A0D_17ED, 0x7AB1_E5EE_D000_0003),
+        freq: 1.0,
+        classes: CLASSES,
+        dpi: DPI,
+        border_width: "0.2pt",
+    }
+    .write(&dir);
     let fig = figure::load(&spec).unwrap();
     let bg = fig.page.background;
     let r = render::render(fig).unwrap();

@@ -61,22 +61,11 @@ fn child(mode: &str, path: &std::path::Path) {
 
 /// Run `mode` in a fresh process `runs` times: every time, largest peak.
 fn measure(mode: &str, path: &std::path::Path, runs: usize) -> (Vec<Duration>, u64, usize) {
-    let exe = std::env::current_exe().unwrap();
     let mut times = Vec::new();
     let mut peak = 0;
     let mut count = 0;
     for _ in 0..runs {
-        let out = std::process::Command::new(&exe)
-            .args(["--child", mode])
-            .arg(path)
-            .output()
-            .unwrap();
-        assert!(
-            out.status.success(),
-            "{}",
-            String::from_utf8_lossy(&out.stderr)
-        );
-        let s = String::from_utf8(out.stdout).unwrap();
+        let s = common::run_child(&["--child", mode], path);
         let v: Vec<&str> = s.split_whitespace().collect();
         times.push(Duration::from_secs_f64(v[0].parse().unwrap()));
         peak = peak.max(v[1].parse().unwrap());

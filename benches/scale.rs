@@ -23,14 +23,11 @@
 
 mod common;
 
-use std::path::{Path, PathBuf};
-use std::process::Command;
+use std::path::Path;
 use std::time::Duration;
 
 use common::{Results, time};
 use hueproof::audit::{self, Options};
-use hueproof::geo::generate::Grid;
-use hueproof::random::SplitMix64;
 use hueproof::scheme::SchemeKind;
 use hueproof::{describe, encode, figure, layout, svg};
 
@@ -41,55 +38,6 @@ fn env(name: &str, default: f64) -> f64 {
         .ok()
         .and_then(|v| v.parse().ok())
         .unwrap_or(default)
-}
-
-/// Boundaries, table and spec into `dir`; the spec's path.
-fn write_inputs(dir: &Path, n: usize, dpi: f64) -> PathBuf {
-    std::fs::create_dir_all(dir).unwrap();
-    let grid = Grid::new(n, 3, 0x5CA1_E000);
-    std::fs::write(dir.join("cells.geojson"), grid.geojson()).unwrap();
-    // A smooth field plus noise, so classes form regions as on a real map.
-    let mut rng = SplitMix64(0x5CA1_E001);
-    let mut csv = String::with_capacity(n * 16);
-    csv.push_str("code,value\n");
-    for c in 0..n {
-        let (x, y) = ((c % grid.nx) as f64, (c / grid.nx) as f64);
-        let field = (x * 0.013).sin() + (y * 0.017).cos() + 0.5 * ((x + y) * 0.007).sin();
-        let v = 100.0 * (0.5 * field + 0.4 * (rng.uniform() - 0.5)).exp();
-        csv.push_str(&format!("C{c},{v:.3}\n"));
-    }
-    std::fs::write(dir.join("values.csv"), csv).unwrap();
-    let spec = format!(
-        r#"[figure]
-kind = "choropleth"
-width = "183mm"
-height = "120mm"
-title = "Invented index by cell"
-subtitle = "{n} cells, quantile classes"
-source = "Generated for the benchmark (invented)"
-dpi = {dpi}
-
-[data]
-table = "values.csv"
-key = "code"
-value = "value"
-level = "ratio"
-label = "Index"
-
-[map]
-shapes = "cells.geojson"
-shape_key = "code"
-border_color = "white"
-border_width = "0.1pt"
-
-[classes]
-method = "quantile"
-count = {CLASSES}
-"#
-    );
-    let p = dir.join("scale.toml");
-    std::fs::write(&p, spec).unwrap();
-    p
 }
 
 /// In a fresh process: the whole pipeline, one line per stage
@@ -142,18 +90,7 @@ fn child_generic(geojson: &Path) {
 }
 
 fn run_child(args: &[&str], path: &Path) -> Vec<Vec<String>> {
-    let out = Command::new(std::env::current_exe().unwrap())
-        .args(args)
-        .arg(path)
-        .output()
-        .unwrap();
-    assert!(
-        out.status.success(),
-        "{}",
-        String::from_utf8_lossy(&out.stderr)
-    );
-    String::from_utf8(out.stdout)
-        .unwrap()
+    common::run_child(args, path)
         .lines()
         .map(|l| l.split_whitespace().map(str::to_string).collect())
         .collect()
@@ -175,7 +112,16 @@ fn main() {
     }
     let n = env("HUEPROOF_SCALE_POLYGONS", 200_000.0) as usize;
     let dir = std::env::temp_dir().join(format!("hueproof-bench-scale-{}", std::process::id()));
-    let (t_gen, spec) = time(|| write_inputs(&dir, n, dpi));
+    let inputs = common::GridFigure {
+        cells: n,
+        per_border: 3,
+        seeds: (0x5CA1_E000, 0x5CA1_E001),
+        freq: 0.12,
+        classes: CLASSES,
+        dpi,
+        border_width: "0.1pt",
+    };
+    let (t_gen, spec) = time(|| inputs.write(&dir));
     let geojson = dir.join("cells.geojson");
     let size = std::fs::metadata(&geojson).unwrap().len();
     println!(

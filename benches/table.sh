@@ -17,7 +17,7 @@ peak=$(grep '^table-peak: ' "$log" | sed 's/^table-peak: //' || true)
 [ -n "$rows" ] || { echo "no benchmark rows in $log" >&2; exit 1; }
 new=$(mktemp)
 {
-  echo "Produced by \`sh benches/table.sh\` on $(date -u +%Y-%m-%d), $(nproc) cores, rustc $(rustc --version | cut -d' ' -f2)."
+  echo "Produced by \`sh benches/table.sh $*\` (cargo bench $*) on $(date -u +%Y-%m-%d), $(nproc) cores, rustc $(rustc --version | cut -d' ' -f2)."
   echo "Each ratio is a measurement's time over its baseline's (the first row of each bench), both from the same run."
   [ -z "$peak" ] || echo "Scale run peak memory: $peak."
   echo

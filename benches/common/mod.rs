@@ -114,3 +114,96 @@ impl Results {
         }
     }
 }
+
+/// A generated choropleth for the benches: `cells` grid cells with shared
+/// winding borders (`geo::generate::Grid`), one value per cell from a
+/// smooth field (`freq` scales its wavelengths) plus noise, so neighbours
+/// tend to share a class as on a real map, and a quantile spec. Written
+/// into `dir`; returns the spec's path.
+pub struct GridFigure {
+    /// Number of cells.
+    pub cells: usize,
+    /// Intermediate vertices per border.
+    pub per_border: usize,
+    /// Seeds of the borders and of the values.
+    pub seeds: (u64, u64),
+    /// Spatial frequency of the value field (1: the audit bench's).
+    pub freq: f64,
+    /// Quantile classes.
+    pub classes: usize,
+    /// The figure's DPI.
+    pub dpi: f64,
+    /// Border width, e.g. `0.2pt`.
+    pub border_width: &'static str,
+}
+
+impl GridFigure {
+    /// Write `cells.geojson`, `values.csv` and `figure.toml` into `dir`.
+    pub fn write(&self, dir: &std::path::Path) -> std::path::PathBuf {
+        use hueproof::geo::generate::Grid;
+        use hueproof::random::SplitMix64;
+        std::fs::create_dir_all(dir).unwrap();
+        let grid = Grid::new(self.cells, self.per_border, self.seeds.0);
+        std::fs::write(dir.join("cells.geojson"), grid.geojson()).unwrap();
+        let mut rng = SplitMix64(self.seeds.1);
+        let mut csv = String::with_capacity(self.cells * 16);
+        csv.push_str("code,value\n");
+        let f = self.freq;
+        for c in 0..self.cells {
+            let (x, y) = ((c % grid.nx) as f64, (c / grid.nx) as f64);
+            let field =
+                (x * 0.11 * f).sin() + (y * 0.13 * f).cos() + 0.5 * ((x + y) * 0.05 * f).sin();
+            let v = 100.0 * (0.5 * field + 0.4 * (rng.uniform() - 0.5)).exp();
+            csv.push_str(&format!("C{c},{v:.2}\n"));
+        }
+        std::fs::write(dir.join("values.csv"), csv).unwrap();
+        let (n, dpi, classes, bw) = (self.cells, self.dpi, self.classes, self.border_width);
+        let spec = format!(
+            r#"[figure]
+kind = "choropleth"
+width = "183mm"
+height = "120mm"
+title = "Invented index by cell"
+subtitle = "{n} cells, quantile classes"
+source = "Generated for the benchmark (invented)"
+dpi = {dpi}
+
+[data]
+table = "values.csv"
+key = "code"
+value = "value"
+level = "ratio"
+label = "Index"
+
+[map]
+shapes = "cells.geojson"
+shape_key = "code"
+border_color = "white"
+border_width = "{bw}"
+
+[classes]
+method = "quantile"
+count = {classes}
+"#
+        );
+        let p = dir.join("figure.toml");
+        std::fs::write(&p, spec).unwrap();
+        p
+    }
+}
+
+/// Run this bench's executable with `args` and `path` in a fresh process
+/// (for a clean peak memory); its standard output.
+pub fn run_child(args: &[&str], path: &std::path::Path) -> String {
+    let out = std::process::Command::new(std::env::current_exe().unwrap())
+        .args(args)
+        .arg(path)
+        .output()
+        .unwrap();
+    assert!(
+        out.status.success(),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    String::from_utf8(out.stdout).unwrap()
+}
