@@ -19,13 +19,15 @@
 //! `cargo bench --bench audit`; `-- --once` runs the audit once and
 //! prints its summary (for a profiler: `perf record ... --bench --once`).
 
-use std::path::{Path, PathBuf};
-use std::time::{Duration, Instant};
+mod common;
+
+use std::path::Path;
+use std::time::Duration;
+
+use common::{Results, ms, stats, time};
 
 use hueproof::audit::{self, Options, TEXT_MARGIN_PX, labels, measure};
 use hueproof::color::Srgb;
-use hueproof::geo::generate::Grid;
-use hueproof::random::SplitMix64;
 use hueproof::scheme::SchemeKind;
 use hueproof::vision::Simulation;
 use hueproof::{figure, raster, render};
@@ -35,58 +37,18 @@ const CLASSES: usize = 6;
 const DPI: f64 = 300.0;
 const RUNS: usize = 7;
 
-/// Write the boundaries, the table and the spec into `dir`; the spec path.
-fn write_inputs(dir: &Path) -> PathBuf {
-    std::fs::create_dir_all(dir).unwrap();
-    let grid = Grid::new(SHAPES, 4, 0x0A0D_17ED);
-    std::fs::write(dir.join("cells.geojson"), grid.geojson()).unwrap();
-    // A smooth field over the grid plus noise, so neighbours tend to share
-    // a class as on a real map, but not always.
-    let mut rng = SplitMix64(0x7AB1_E5EE_D000_0003);
-    let mut csv = String::from("code,value\n");
-    for c in 0..SHAPES {
-        let (x, y) = ((c % grid.nx) as f64, (c / grid.nx) as f64);
-        let field = (x * 0.11).sin() + (y * 0.13).cos() + 0.5 * ((x + y) * 0.05).sin();
-        let v = 100.0 * (0.5 * field + 0.4 * (rng.uniform() - 0.5)).exp();
-        csv.push_str(&format!("C{c},{v:.2}\n"));
-    }
-    std::fs::write(dir.join("values.csv"), csv).unwrap();
-    let spec = format!(
-        r#"[figure]
-kind = "choropleth"
-width = "183mm"
-height = "120mm"
-title = "Invented index by cell"
-subtitle = "{SHAPES} cells, quantile classes"
-source = "Generated for the benchmark (invented)"
-dpi = {DPI}
-
-[data]
-table = "values.csv"
-key = "code"
-value = "value"
-level = "ratio"
-label = "Index"
-
-[map]
-shapes = "cells.geojson"
-shape_key = "code"
-border_color = "white"
-border_width = "0.2pt"
-
-[classes]
-method = "quantile"
-count = {CLASSES}
-"#
-    );
-    let p = dir.join("bench.toml");
-    std::fs::write(&p, spec).unwrap();
-    p
-}
-
 fn figure_svg() -> (String, Srgb) {
     let dir = std::env::temp_dir().join(format!("hueproof-bench-audit-{}", std::process::id()));
-    let spec = write_inputs(&dir);
+    let spec = common::GridFigure {
+        cells: SHAPES,
+        per_border: 4,
+        seeds: (0x0A0D_17ED, 0x7AB1_E5EE_D000_0003),
+        freq: 1.0,
+        classes: CLASSES,
+        dpi: DPI,
+        border_width: "0.2pt",
+    }
+    .write(&dir);
     let fig = figure::load(&spec).unwrap();
     let bg = fig.page.background;
     let r = render::render(fig).unwrap();
@@ -94,29 +56,12 @@ fn figure_svg() -> (String, Srgb) {
     (r.svg, bg)
 }
 
-fn time<T>(f: impl FnOnce() -> T) -> (Duration, T) {
-    let t = Instant::now();
-    let v = f();
-    (t.elapsed(), v)
-}
-
-/// Median and minimum of a set of timings.
-fn stats(mut t: Vec<Duration>) -> (Duration, Duration) {
-    t.sort();
-    (t[t.len() / 2], t[0])
-}
-
-fn ms(d: Duration) -> f64 {
-    d.as_secs_f64() * 1e3
-}
-
 fn ratio(a: Duration, b: Duration) -> f64 {
     a.as_secs_f64() / b.as_secs_f64()
 }
 
 fn main() {
-    if !std::env::args().any(|a| a == "--bench") {
-        println!("audit: run with `cargo bench --bench audit`");
+    if !common::benchmarking("audit") {
         return;
     }
     let name = Path::new("bench.svg");
@@ -174,27 +119,11 @@ fn main() {
         ta.push(time(|| std::hint::black_box(run_audit())).0);
         t1.push(one.install(|| time(|| std::hint::black_box(run_audit())).0));
     }
-    let (r_med, r_min) = stats(tr);
-    let (a_med, a_min) = stats(ta);
-    let (a1_med, a1_min) = stats(t1);
-    println!(
-        "  {:<34} {:>10} {:>10} {:>12} {:>10}",
-        "", "median ms", "min ms", "ratio(med)", "ratio(min)"
-    );
-    for (label, med, min) in [
-        ("resvg raster (baseline)", r_med, r_min),
-        ("full audit, 5 views", a_med, a_min),
-        ("full audit, one thread", a1_med, a1_min),
-    ] {
-        println!(
-            "  {label:<34} {:>10.1} {:>10.1} {:>12.2} {:>10.2}",
-            ms(med),
-            ms(min),
-            ratio(med, r_med),
-            ratio(min, r_min)
-        );
-    }
-    println!("  aim: the full audit at most 1.3 x the raster");
+    let r_min = stats(&tr).1;
+    let mut results = Results::new("audit", "resvg raster", tr);
+    results.row("full audit, 5 views", ta);
+    results.row("full audit, one thread", t1);
+    results.print("the full audit at most 1.3 x the raster");
 
     // The stages on their own (each once per run, minimum kept), for
     // seeing where the time goes.

@@ -16,8 +16,11 @@
 //! The values are generated deterministically: splitmix64 uniforms,
 //! Box-Muller normals, exp(3 + z) (lognormal, mu = 3, sigma = 1).
 
-use std::time::{Duration, Instant};
+mod common;
 
+use std::time::Instant;
+
+use common::{Results, ms, time};
 use hueproof::classify::{self, Method, Sample};
 use hueproof::random::SplitMix64;
 
@@ -41,23 +44,10 @@ fn lognormal(n: usize, seed: u64) -> Vec<f64> {
     out
 }
 
-fn time<F: FnMut()>(mut f: F) -> Duration {
-    let t = Instant::now();
-    f();
-    t.elapsed()
-}
-
-/// Median and minimum of a set of timings.
-fn stats(mut t: Vec<Duration>) -> (Duration, Duration) {
-    t.sort();
-    (t[t.len() / 2], t[0])
-}
-
 fn main() {
     // `cargo bench` passes `--bench`; `cargo test --benches` passes nothing
     // useful either; run the measurement only when benchmarking.
-    if !std::env::args().any(|a| a == "--bench") {
-        println!("natural_breaks: run with `cargo bench --bench natural_breaks`");
+    if !common::benchmarking("natural_breaks") {
         return;
     }
     let values = lognormal(N, 0x5EED_2026);
@@ -90,22 +80,24 @@ fn main() {
     // the baseline and the method alike.
     let (mut ts, mut tn, mut t1, mut tf) = (vec![], vec![], vec![], vec![]);
     for _ in 0..RUNS {
-        ts.push(time(|| {
-            let mut v = values.clone();
-            v.sort_unstable_by(f64::total_cmp);
-            std::hint::black_box(&v);
-        }));
-        tn.push(time(natural_run));
-        t1.push(one.install(|| time(natural_run)));
-        tf.push(time(|| {
-            let s = Sample::new(values.clone(), 0).unwrap();
-            std::hint::black_box(classify::classify(&s, &method, 20).unwrap());
-        }));
+        ts.push(
+            time(|| {
+                let mut v = values.clone();
+                v.sort_unstable_by(f64::total_cmp);
+                std::hint::black_box(&v);
+            })
+            .0,
+        );
+        tn.push(time(natural_run).0);
+        t1.push(one.install(|| time(natural_run).0));
+        tf.push(
+            time(|| {
+                let s = Sample::new(values.clone(), 0).unwrap();
+                std::hint::black_box(classify::classify(&s, &method, 20).unwrap());
+            })
+            .0,
+        );
     }
-    let (sort, sort_min) = stats(ts);
-    let (natural, natural_min) = stats(tn);
-    let (natural_1, natural_1_min) = stats(t1);
-    let (full, full_min) = stats(tf);
     let s = Sample::new(values.clone(), 0).unwrap();
     let c = classify::classify(&s, &method, 20).unwrap();
     println!(
@@ -114,31 +106,9 @@ fn main() {
     );
     println!("  bounds {:?}", c.breaks);
     println!("  gvf {:.6}", c.gvf.unwrap_or(f64::NAN));
-    println!(
-        "  {:<28} {:>10} {:>10} {:>12} {:>9}",
-        "", "median ms", "min ms", "ratio(med)", "ratio(min)"
-    );
-    for (name, med, min) in [
-        ("sort (baseline)", sort, sort_min),
-        ("natural breaks", natural, natural_min),
-        ("natural breaks, one thread", natural_1, natural_1_min),
-        ("full classification", full, full_min),
-    ] {
-        println!(
-            "  {name:<28} {:>10.1} {:>10.1} {:>12.2} {:>9.2}",
-            ms(med),
-            ms(min),
-            ratio(med, sort),
-            ratio(min, sort_min)
-        );
-    }
-    println!("  aim: natural breaks at most 3x the sort");
-}
-
-fn ms(d: Duration) -> f64 {
-    d.as_secs_f64() * 1e3
-}
-
-fn ratio(a: Duration, b: Duration) -> f64 {
-    a.as_secs_f64() / b.as_secs_f64()
+    let mut results = Results::new("natural_breaks", "sort", ts);
+    results.row("natural breaks", tn);
+    results.row("natural breaks, one thread", t1);
+    results.row("full classification", tf);
+    results.print("natural breaks at most 3x the sort");
 }

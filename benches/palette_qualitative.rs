@@ -6,18 +6,20 @@
 //!
 //! Run with `cargo bench --bench palette_qualitative`.
 
-use std::time::{Duration, Instant};
+mod common;
+
+use std::time::Instant;
+
+use common::Results;
 
 use hueproof::color::{Lab, Srgb, ciede2000};
 use hueproof::scheme::{Context, Thresholds, qualitative};
 use hueproof::vision;
 
-fn median(mut v: Vec<Duration>) -> Duration {
-    v.sort();
-    v[v.len() / 2]
-}
-
 fn main() {
+    if !common::benchmarking("palette_qualitative") {
+        return;
+    }
     let ctx = Context {
         background: Srgb::new(1.0, 1.0, 1.0),
         views: vision::parse_views(vision::DEFAULT_VIEWS).unwrap(),
@@ -36,7 +38,7 @@ fn main() {
         times.push(t.elapsed());
     }
     let out = out.unwrap();
-    let optimise = median(times);
+    let optimise = times;
     // Baseline: the same number of CIEDE2000 evaluations on varied Lab
     // pairs (a deterministic spread over the gamut).
     let labs: Vec<Lab> = (0..997)
@@ -60,20 +62,12 @@ fn main() {
         std::hint::black_box(acc);
         times.push(t.elapsed());
     }
-    let baseline = median(times);
-    println!("qualitative palette, 8 classes, 5 views (4 optimised), median of 5 runs");
     println!(
-        "  optimisation        {:>9.1} ms",
-        optimise.as_secs_f64() * 1e3
+        "palette_qualitative: 8 classes, 5 views (4 optimised), {n} CIEDE2000 calls, \
+         smallest ΔE00 {:.2}",
+        out.min_delta_e
     );
-    println!("  CIEDE2000 calls     {:>9}", n);
-    println!(
-        "  baseline (calls)    {:>9.1} ms",
-        baseline.as_secs_f64() * 1e3
-    );
-    println!(
-        "  ratio               {:>9.2}  (optimisation / baseline)",
-        optimise.as_secs_f64() / baseline.as_secs_f64()
-    );
-    println!("  smallest ΔE00       {:>9.2}", out.min_delta_e);
+    let mut results = Results::new("palette_qualitative", "as many CIEDE2000 calls", times);
+    results.row("qualitative palette, 8 classes", optimise);
+    results.print("");
 }

@@ -9,7 +9,11 @@
 //!
 //! Run with `cargo bench --bench vision_raster`.
 
+mod common;
+
 use std::time::{Duration, Instant};
+
+use common::Results;
 
 use hueproof::random::SplitMix64;
 use hueproof::vision::raster::{simulate_rgba8, simulate_rgba8_serial};
@@ -68,27 +72,30 @@ fn noise() -> Vec<u8> {
     buf
 }
 
-/// Time `copy` and `sim` alternately (so both see the same machine load)
-/// and return the minimum of each: the least disturbed estimate.
-fn interleaved(src: &[u8], sim: impl Fn(&mut [u8])) -> (Duration, Duration) {
+/// Time `copy` and `sim` alternately (so both see the same machine load);
+/// every run of each.
+fn interleaved(src: &[u8], sim: impl Fn(&mut [u8])) -> (Vec<Duration>, Vec<Duration>) {
     let mut dst = vec![0u8; src.len()];
     let mut work = src.to_vec();
-    let (mut copy, mut run) = (Duration::MAX, Duration::MAX);
+    let (mut copy, mut run) = (Vec::new(), Vec::new());
     for _ in 0..RUNS {
         let t = Instant::now();
         dst.copy_from_slice(src);
         std::hint::black_box(&mut dst);
-        copy = copy.min(t.elapsed());
+        copy.push(t.elapsed());
         work.copy_from_slice(src);
         let t = Instant::now();
         sim(&mut work);
         std::hint::black_box(&mut work);
-        run = run.min(t.elapsed());
+        run.push(t.elapsed());
     }
     (copy, run)
 }
 
 fn main() {
+    if !common::benchmarking("vision_raster") {
+        return;
+    }
     let views = [
         ("protanopia", View::Dichromacy(Deficiency::Protan)),
         ("deuteranopia", View::Dichromacy(Deficiency::Deutan)),
@@ -96,32 +103,34 @@ fn main() {
         ("achromatopsia", View::Achromatopsia),
     ];
     let pixels = (W * H) as f64;
-    println!("raster simulation, {W} x {H} RGBA8, minimum of {RUNS} interleaved runs");
-    println!(
-        "{:<13} {:<14} {:>9} {:>9} {:>11} {:>9}",
-        "content", "view", "copy ms", "sim ms", "Mpixel/s", "vs copy"
-    );
+    println!("vision_raster: {W} x {H} RGBA8, {RUNS} interleaved runs per view");
     for (name, src) in [("figure-like", figure_like()), ("noise", noise())] {
-        let mut rows: Vec<(&str, Duration, Duration)> = Vec::new();
+        // The copies interleaved with every view's runs form the baseline.
+        let mut copies = Vec::new();
+        let mut rows: Vec<(String, Vec<Duration>)> = Vec::new();
         for (vname, view) in views {
             let sim = Simulation::new(view, None);
             let (copy, one) = interleaved(&src, |b| simulate_rgba8_serial(&sim, b));
-            rows.push((vname, copy, one));
+            copies.extend(copy);
+            rows.push((format!("{name}, {vname}, one core"), one));
         }
         let sim = Simulation::new(View::Dichromacy(Deficiency::Tritan), None);
         let (copy, par) = interleaved(&src, |b| simulate_rgba8(&sim, W, b));
-        rows.push(("tritan, rayon", copy, par));
-        for (vname, copy, t) in rows {
-            println!(
-                "{name:<13} {vname:<14} {:>9.2} {:>9.2} {:>11.1} {:>9.2}",
-                copy.as_secs_f64() * 1e3,
-                t.as_secs_f64() * 1e3,
-                pixels / t.as_secs_f64() / 1e6,
-                copy.as_secs_f64() / t.as_secs_f64()
-            );
+        copies.extend(copy);
+        rows.push((format!("{name}, tritanopia, rayon"), par));
+        let best = rows[0].1.iter().min().unwrap().as_secs_f64();
+        println!(
+            "  {name}: protanopia on one core {:.1} Mpixel/s",
+            pixels / best / 1e6
+        );
+        let mut results = Results::new("vision_raster", &format!("{name}, copy"), copies);
+        for (label, t) in rows {
+            results.row(&label, t);
         }
+        results.print(if name == "figure-like" {
+            "one core at most 3.3 x the copy (at least 0.3 of copy speed)"
+        } else {
+            ""
+        });
     }
-    println!(
-        "'vs copy' = copy time / simulation time (1.00 = as fast as a plain copy); one core unless marked rayon."
-    );
 }

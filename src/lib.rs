@@ -64,6 +64,8 @@ pub mod error;
 pub mod figure;
 pub mod findings;
 pub mod font;
+#[doc(hidden)]
+pub mod fuzzing;
 pub mod geo;
 pub mod inspect;
 pub mod join;

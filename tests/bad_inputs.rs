@@ -437,7 +437,7 @@ fn cases() -> Vec<Case> {
             },
             &["check", "e.svg"],
             BAD,
-            &["e.svg", "DOCTYPE", "refused"],
+            &["e.svg", "entities", "refused"],
         ),
         case(
             "check: neither a spec nor an SVG",

@@ -127,6 +127,24 @@ fn class_order(id: &str) -> (u32, u64, String) {
     }
 }
 
+/// Refuse entity declarations in an untrusted document's type
+/// declaration: nested entities expand exponentially ("billion laughs")
+/// and one large entity referenced often expands quadratically, and an
+/// external entity names a file or address to read. SVG needs none of
+/// them. Checked on the text, before any parser expands anything.
+pub fn refuse_entities(name: &Path, svg: &str) -> Result<()> {
+    if svg.contains("<!DOCTYPE") && svg.contains("<!ENTITY") {
+        return Err(invalid(
+            name,
+            "the document type declares entities (<!ENTITY ...>), which are refused: \
+             they can expand to gigabytes or name files to read; write the text and \
+             colours out in full"
+                .into(),
+        ));
+    }
+    Ok(())
+}
+
 fn invalid(name: &Path, message: String) -> Error {
     Error::Invalid {
         path: name.to_path_buf(),
@@ -571,13 +589,15 @@ fn unit_pt(root: roxmltree::Node) -> f64 {
 /// or carries no `data-class` marks (class detection for SVG from other
 /// tools is not available yet).
 pub fn label_svg(name: &Path, svg: &str) -> Result<LabelSvg> {
-    let doc = roxmltree::Document::parse(svg).map_err(|e| match e {
-        roxmltree::Error::DtdDetected => invalid(
-            name,
-            "not a readable SVG document: it has a document type declaration (<!DOCTYPE ...>), which is refused because its entities can expand without bound; remove the declaration".into(),
-        ),
-        e => invalid(name, format!("not a readable SVG document: {e}")),
-    })?;
+    refuse_entities(name, svg)?;
+    // A document type declaration without entities (the public SVG 1.1
+    // one that many tools write) is allowed; nothing it names is fetched.
+    let options = roxmltree::ParsingOptions {
+        allow_dtd: true,
+        ..roxmltree::ParsingOptions::default()
+    };
+    let doc = roxmltree::Document::parse_with_options(svg, options)
+        .map_err(|e| invalid(name, format!("not a readable SVG document: {e}")))?;
     let root = doc.root_element();
     if root.tag_name().name() != "svg" {
         return Err(invalid(name, "expected an <svg> root element".into()));

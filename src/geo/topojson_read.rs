@@ -40,6 +40,7 @@ pub fn read_topojson_str(
             .cloned()
             .ok_or_else(|| "the topology has no objects".to_string())?,
     };
+    check_topology(&topology, &name)?;
     let fc = topojson::to_geojson(&topology, &name)
         .map_err(|e| format!("cannot decode object '{name}': {e}"))?;
     // The crate speaks an older `geojson`; its JSON form is the bridge.
@@ -47,6 +48,70 @@ pub fn read_topojson_str(
     let fc: geojson::FeatureCollection =
         serde_json::from_value(value).map_err(|e| format!("cannot decode: {e}"))?;
     Ok(convert_features(&fc.features, options))
+}
+
+/// Check what the decoder indexes without checking (found by fuzzing: the
+/// `topojson` crate panics on these): every arc reference of object `name`
+/// names an existing arc (`i` or `~i`, written `-i - 1`), and every
+/// position of the arcs and of the object's points has two coordinates.
+fn check_topology(topology: &topojson::Topology, name: &str) -> std::result::Result<(), String> {
+    use topojson::Value;
+    let arcs = topology.arcs.len();
+    for (a, arc) in topology.arcs.iter().enumerate() {
+        if let Some(p) = arc.iter().position(|p| p.len() < 2) {
+            return Err(format!(
+                "arc {a}, position {p}: expected at least two coordinates"
+            ));
+        }
+    }
+    let refs = |list: &[i32]| -> std::result::Result<(), String> {
+        for &r in list {
+            let i = if r < 0 {
+                -(i64::from(r)) - 1
+            } else {
+                i64::from(r)
+            };
+            if i >= arcs as i64 {
+                return Err(format!(
+                    "object '{name}' refers to arc {r}, but the topology has {arcs} arcs \
+                     (0 to {}, or ~i written -i-1)",
+                    arcs.saturating_sub(1)
+                ));
+            }
+        }
+        Ok(())
+    };
+    let point = |p: &[f64]| {
+        if p.len() < 2 {
+            Err(format!(
+                "object '{name}': a point with {} coordinates; expected at least two",
+                p.len()
+            ))
+        } else {
+            Ok(())
+        }
+    };
+    let mut stack = vec![
+        &topology
+            .objects
+            .iter()
+            .find(|o| o.name == name)
+            .expect("the name is one of the topology's")
+            .geometry,
+    ];
+    while let Some(g) = stack.pop() {
+        match &g.value {
+            Value::Point(p) => point(p)?,
+            Value::MultiPoint(ps) => ps.iter().try_for_each(|p| point(p))?,
+            Value::LineString(l) => refs(l)?,
+            Value::MultiLineString(ls) | Value::Polygon(ls) => {
+                ls.iter().try_for_each(|l| refs(l))?
+            }
+            Value::MultiPolygon(ps) => ps.iter().flatten().try_for_each(|l| refs(l))?,
+            Value::GeometryCollection(gs) => stack.extend(gs),
+        }
+    }
+    Ok(())
 }
 
 /// Read a boundary file, GeoJSON or TopoJSON: TopoJSON when the name ends
