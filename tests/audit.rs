@@ -5,7 +5,7 @@
 
 mod common;
 
-use common::cli;
+use common::{cli, marks, rect};
 
 use std::path::Path;
 
@@ -27,27 +27,6 @@ fn page(w: f64, h: f64, body: &str) -> String {
     format!(
         r##"<svg xmlns="http://www.w3.org/2000/svg" width="{w}pt" height="{h}pt" viewBox="0 0 {w} {h}"><rect data-role="background" width="{w}" height="{h}" fill="#ffffff"/>{body}</svg>"##
     )
-}
-
-fn marks(class: &str, fill: &str, stroke: Option<(&str, f64)>, shapes: &[String]) -> String {
-    let s = match stroke {
-        Some((c, w)) => format!(r#" stroke="{c}" stroke-width="{w}""#),
-        None => String::new(),
-    };
-    let mut out =
-        format!(r#"<g id="p1-{class}" data-role="marks" data-class="{class}" fill="{fill}"{s}>"#);
-    for (i, sh) in shapes.iter().enumerate() {
-        out.push_str(&sh.replace(
-            "/>",
-            &format!(r#" data-key="{class}-{i}" data-class="{class}"/>"#),
-        ));
-    }
-    out.push_str("</g>");
-    out
-}
-
-fn rect(x: f64, y: f64, w: f64, h: f64) -> String {
-    format!(r#"<rect x="{x}" y="{y}" width="{w}" height="{h}"/>"#)
 }
 
 /// Classes c1, c2, ... of `fills`, one rectangle each, in a row `pitch`

@@ -4,6 +4,9 @@
 
 use std::path::Path;
 
+mod common;
+use common::media_box;
+
 use hueproof::pdf::svg_to_pdf;
 
 const FIGURE: &str = r##"<svg xmlns="http://www.w3.org/2000/svg" width="89mm" height="60mm" viewBox="0 0 890 600">
@@ -32,27 +35,6 @@ fn starts_with_a_pdf_header_and_ends_with_eof() {
 fn the_same_svg_gives_the_same_bytes() {
     assert_eq!(convert(FIGURE), convert(FIGURE));
     assert_eq!(convert(TEXT_ONLY), convert(TEXT_ONLY));
-}
-
-/// The MediaBox of the single page, read with lopdf.
-fn media_box(pdf: &[u8]) -> Vec<f64> {
-    let doc = lopdf::Document::load_mem(pdf).expect("lopdf reads the PDF");
-    let pages = doc.get_pages();
-    assert_eq!(pages.len(), 1, "one page");
-    let id = *pages.values().next().unwrap();
-    let page = doc.get_dictionary(id).unwrap();
-    page.get(b"MediaBox")
-        .unwrap()
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|o| {
-            o.as_float()
-                .map(f64::from)
-                .or_else(|_| o.as_i64().map(|v| v as f64))
-                .unwrap()
-        })
-        .collect()
 }
 
 #[test]

@@ -7,7 +7,7 @@ mod common;
 
 use std::path::Path;
 
-use common::{cli, read_csv, scratch};
+use common::{cli, marks, media_box, read_csv, rect, scratch};
 
 use hueproof::ExitKind;
 use hueproof::audit::labels::fill_label;
@@ -22,23 +22,6 @@ fn page(w: f64, h: f64, body: &str) -> String {
     )
 }
 
-fn marks_of(class: &str, fill: &str, shapes: &[String]) -> String {
-    let mut out =
-        format!(r#"<g id="p1-{class}" data-role="marks" data-class="{class}" fill="{fill}">"#);
-    for (i, sh) in shapes.iter().enumerate() {
-        out.push_str(&sh.replace(
-            "/>",
-            &format!(r#" data-key="{class}-{i}" data-class="{class}"/>"#),
-        ));
-    }
-    out.push_str("</g>");
-    out
-}
-
-fn rect(x: f64, y: f64, w: f64, h: f64) -> String {
-    format!(r#"<rect x="{x}" y="{y}" width="{w}" height="{h}"/>"#)
-}
-
 /// Classes c1, c2, ... of `fills`, one 40 x 40 square each, `pitch` apart.
 fn row<S: AsRef<str>>(fills: &[S], pitch: f64) -> String {
     fills
@@ -46,9 +29,10 @@ fn row<S: AsRef<str>>(fills: &[S], pitch: f64) -> String {
         .enumerate()
         .map(|(i, f)| {
             let x = 10.0 + pitch * i as f64;
-            marks_of(
+            marks(
                 &format!("c{}", i + 1),
                 f.as_ref(),
+                None,
                 &[rect(x, 10.0, 40.0, 40.0)],
             )
         })
@@ -66,8 +50,8 @@ fn red_green() -> String {
     page(
         160.0,
         80.0,
-        &(marks_of("c1", RED, &[rect(10.0, 10.0, 70.0, 60.0)])
-            + &marks_of("c2", GREEN, &[rect(80.0, 10.0, 70.0, 60.0)])),
+        &(marks("c1", RED, None, &[rect(10.0, 10.0, 70.0, 60.0)])
+            + &marks("c2", GREEN, None, &[rect(80.0, 10.0, 70.0, 60.0)])),
     )
 }
 
@@ -296,7 +280,7 @@ fn a_pale_borderless_class_gets_a_dashed_mark_in_every_view() {
     // As in tests/audit.rs: #f1efe9 on white is about 1.1:1, under the 3:1
     // of WCAG 2.x SC 1.4.11, so the class fades in every view.
     let shapes = [rect(20.0, 20.0, 40.0, 40.0), rect(80.0, 20.0, 40.0, 40.0)];
-    let svg = page(140.0, 80.0, &marks_of("c1", "#f1efe9", &shapes));
+    let svg = page(140.0, 80.0, &marks("c1", "#f1efe9", None, &shapes));
     let (ex, opt) = examine(&svg, 96.0, None);
     assert!(ex.report.findings.iter().all(|f| f.code == "HP102"));
     assert_eq!(ex.report.findings.len(), 5);
@@ -426,23 +410,7 @@ fn the_pdf_sheet_is_one_page_at_the_sheet_physical_size_and_deterministic() {
     let s = sheet::build("red-green", &ex, &opt);
     let pdf = s.canvas.pdf().unwrap();
     assert!(pdf == s.canvas.pdf().unwrap());
-    let doc = lopdf::Document::load_mem(&pdf).unwrap();
-    let pages = doc.get_pages();
-    assert_eq!(pages.len(), 1);
-    let page = doc.get_dictionary(*pages.values().next().unwrap()).unwrap();
-    let mb: Vec<f64> = page
-        .get(b"MediaBox")
-        .unwrap()
-        .as_array()
-        .unwrap()
-        .iter()
-        .map(|o| {
-            o.as_float()
-                .map(f64::from)
-                .or_else(|_| o.as_i64().map(|v| v as f64))
-                .unwrap()
-        })
-        .collect();
+    let mb = media_box(&pdf);
     let want = [
         s.canvas.width as f64 * 72.0 / 48.0,
         s.canvas.height as f64 * 72.0 / 48.0,
@@ -462,8 +430,8 @@ fn the_command_writes_a_sheet_per_figure_and_an_index_and_exits_1_on_findings() 
         page(
             160.0,
             80.0,
-            &(marks_of("c1", "#1b4f72", &[rect(10.0, 10.0, 70.0, 60.0)])
-                + &marks_of("c2", "#f0b27a", &[rect(80.0, 10.0, 70.0, 60.0)])),
+            &(marks("c1", "#1b4f72", None, &[rect(10.0, 10.0, 70.0, 60.0)])
+                + &marks("c2", "#f0b27a", None, &[rect(80.0, 10.0, 70.0, 60.0)])),
         ),
     )
     .unwrap();

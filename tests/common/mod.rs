@@ -126,3 +126,48 @@ pub fn hueproof_command(dir: &std::path::Path, args: &[&str]) -> std::process::C
         .stdin(std::process::Stdio::null());
     c
 }
+
+/// A group of marks of class `class` in hueproof's markup (fill, an
+/// optional stroke colour and width), one mark per shape.
+pub fn marks(class: &str, fill: &str, stroke: Option<(&str, f64)>, shapes: &[String]) -> String {
+    let s = match stroke {
+        Some((c, w)) => format!(r#" stroke="{c}" stroke-width="{w}""#),
+        None => String::new(),
+    };
+    let mut out =
+        format!(r#"<g id="p1-{class}" data-role="marks" data-class="{class}" fill="{fill}"{s}>"#);
+    for (i, sh) in shapes.iter().enumerate() {
+        out.push_str(&sh.replace(
+            "/>",
+            &format!(r#" data-key="{class}-{i}" data-class="{class}"/>"#),
+        ));
+    }
+    out.push_str("</g>");
+    out
+}
+
+/// An SVG rectangle.
+pub fn rect(x: f64, y: f64, w: f64, h: f64) -> String {
+    format!(r#"<rect x="{x}" y="{y}" width="{w}" height="{h}"/>"#)
+}
+
+/// The MediaBox of the single page, read with lopdf.
+pub fn media_box(pdf: &[u8]) -> Vec<f64> {
+    let doc = lopdf::Document::load_mem(pdf).expect("lopdf reads the PDF");
+    let pages = doc.get_pages();
+    assert_eq!(pages.len(), 1, "one page");
+    let id = *pages.values().next().unwrap();
+    let page = doc.get_dictionary(id).unwrap();
+    page.get(b"MediaBox")
+        .unwrap()
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|o| {
+            o.as_float()
+                .map(f64::from)
+                .or_else(|_| o.as_i64().map(|v| v as f64))
+                .unwrap()
+        })
+        .collect()
+}
