@@ -128,15 +128,18 @@ pub fn render(name: &Path, doc: &Document, dpi: f64, background: Srgb) -> Result
         &mut pixmap.as_mut(),
     );
     // Over an opaque background every pixel is opaque, so premultiplied
-    // and straight values are the same.
-    let rgba = pixmap
-        .pixels()
-        .iter()
-        .flat_map(|p| {
-            let c = p.demultiply();
-            [c.red(), c.green(), c.blue(), c.alpha()]
-        })
-        .collect();
+    // and straight values are the same: the pixmap's bytes are taken as
+    // they are (no copy). A pixel that is not opaque (none is expected) is
+    // demultiplied in place.
+    let mut rgba = pixmap.take();
+    for p in rgba.chunks_exact_mut(4) {
+        if p[3] != 255 {
+            let c = tiny_skia::PremultipliedColorU8::from_rgba(p[0], p[1], p[2], p[3])
+                .map(|c| c.demultiply())
+                .unwrap_or(tiny_skia::ColorU8::from_rgba(0, 0, 0, 0));
+            p.copy_from_slice(&[c.red(), c.green(), c.blue(), c.alpha()]);
+        }
+    }
     Ok(Raster {
         width: w as u32,
         height: h as u32,
