@@ -84,3 +84,83 @@ fn every_class_count_equals_plain_programme() {
         }
     }
 }
+
+/// Data shapes for the pruned programme: skewed with and without ties,
+/// flat (uniform), two far clusters, and long runs of one value.
+fn shaped(kind: u8, seed: u64, n: usize) -> Vec<f64> {
+    let mut s = seed ^ 0x9E37_79B9_7F4A_7C15;
+    let mut uniform = || {
+        s = s
+            .wrapping_mul(6364136223846793005)
+            .wrapping_add(1442695040888963407);
+        (s >> 11) as f64 / (1u64 << 53) as f64
+    };
+    match kind {
+        0 => values(seed, n, 1e-6),
+        1 => values(seed, n, 0.5),
+        2 => (0..n).map(|_| uniform() * 100.0).collect(),
+        3 => (0..n)
+            .map(|i| {
+                if i % 3 == 0 {
+                    1e4 + uniform()
+                } else {
+                    uniform()
+                }
+            })
+            .collect(),
+        _ => (0..n)
+            .map(|_| (uniform() * 6.0).floor() * 10.0 + uniform() * 0.01)
+            .collect(),
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(64))]
+
+    /// The pruned programme (bounds on a coarse grid, rows that cannot lie
+    /// on an optimal partition never computed), forced onto small inputs
+    /// with a fine grid, finds the same class ends as the full programme,
+    /// and their cost is the minimum of the plain programme of Fisher
+    /// (1958).
+    #[test]
+    fn pruned_programme_equals_full_programme(
+        kind in 0u8..5,
+        seed in 0u64..10_000,
+        n in 150usize..700,
+        spacing in 2usize..24,
+        k in 2usize..9,
+    ) {
+        let sample = Sample::new(shaped(kind, seed, n), 0).unwrap();
+        let (u, w) = fisher_jenks::unique_weighted(sample.sorted());
+        prop_assume!(k < u.len());
+        let full = fisher_jenks::optimal_ends_full(&u, &w, k);
+        let pruned = fisher_jenks::optimal_ends_pruned(&u, &w, k, spacing);
+        // None only when the grid has fewer than k + 1 cells.
+        let cells = u.len().div_ceil(spacing);
+        prop_assert!(pruned.is_some() || cells < k + 1, "cells {} k {}", cells, k);
+        if let Some(pruned) = pruned {
+            prop_assert_eq!(&pruned, &full, "kind {} n {} spacing {} k {}", kind, n, spacing, k);
+            let got = fisher_jenks::partition_cost(&u, &w, &pruned);
+            let want = common::plain_fisher_programme(sample.sorted(), k);
+            let sdam = common::plain_fisher_programme(sample.sorted(), 1);
+            prop_assert!((got - want).abs() <= 1e-9 * sdam.max(1.0));
+        }
+    }
+}
+
+/// On 60,000 skewed values (the size where the pruned programme is used
+/// by default), the default programme takes the pruned path (it does not
+/// stop early) and its ends equal the full programme's, for k = 2..=9.
+#[test]
+fn pruned_programme_is_used_and_exact_on_a_large_input() {
+    let sample = Sample::new(values(77, 60_000, 1e-6), 0).unwrap();
+    let (u, w) = fisher_jenks::unique_weighted(sample.sorted());
+    assert!(u.len() > 50_000);
+    for k in 2..=9 {
+        let full = fisher_jenks::optimal_ends_full(&u, &w, k);
+        let pruned = fisher_jenks::optimal_ends_pruned(&u, &w, k, u.len().div_ceil(8192))
+            .unwrap_or_else(|| panic!("k {k}: the pruned programme stopped early"));
+        assert_eq!(pruned, full, "k {k}");
+        assert_eq!(fisher_jenks::optimal_ends(&u, &w, k), full, "k {k}");
+    }
+}

@@ -112,14 +112,16 @@ pub fn unique_weighted(x: &[f64]) -> (Vec<f64>, Vec<f64>) {
 /// Prefix sums for O(1) class costs over weighted points. The weights are
 /// whole numbers (multiplicities), so their prefix sums are kept as
 /// integers; a difference of two of them converts exactly to f64.
-struct Prefix {
-    w: Vec<u32>,
-    s1: Vec<f64>,
-    s2: Vec<f64>,
+pub(crate) struct Prefix {
+    pub(crate) w: Vec<u32>,
+    pub(crate) s1: Vec<f64>,
+    pub(crate) s2: Vec<f64>,
+    /// The weighted mean the values are centred on.
+    pub(crate) centre: f64,
 }
 
 impl Prefix {
-    fn new(values: &[f64], weights: &[f64]) -> Prefix {
+    pub(crate) fn new(values: &[f64], weights: &[f64]) -> Prefix {
         let total: f64 = weights.iter().sum();
         let centre = values.iter().zip(weights).map(|(v, w)| v * w).sum::<f64>() / total;
         let m = values.len();
@@ -141,12 +143,12 @@ impl Prefix {
             s1.push(a1);
             s2.push(a2);
         }
-        Prefix { w, s1, s2 }
+        Prefix { w, s1, s2, centre }
     }
 
     /// Within-class sum of squares of points [j, i) (j < i).
     #[inline(always)]
-    fn cost(&self, j: usize, i: usize) -> f64 {
+    pub(crate) fn cost(&self, j: usize, i: usize) -> f64 {
         let dw = (self.w[i] - self.w[j]) as f64;
         let d1 = self.s1[i] - self.s1[j];
         let c = (self.s2[i] - self.s2[j]) - d1 * d1 / dw;
@@ -159,6 +161,39 @@ impl Prefix {
 /// weights (multiplicities).
 pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
     let m = values.len();
+    if k == 1 || k == m || m < PRUNE_FROM {
+        return optimal_ends_full(values, weights, k);
+    }
+    let p = Prefix::new(values, weights);
+    let spacing = m.div_ceil(PRUNE_GRID);
+    super::jenks_pruning::optimal_ends(values, &p, k, spacing, true)
+        .unwrap_or_else(|| full_programme(&p, k))
+}
+
+/// Inputs with at least this many distinct values are first tried with the
+/// pruned programme ([`super::jenks_pruning`]).
+const PRUNE_FROM: usize = 20_000;
+
+/// Grid points of the pruned programme's bounds.
+const PRUNE_GRID: usize = 8192;
+
+/// [`optimal_ends`] by the pruned programme with grid step `spacing`,
+/// never stopping early even where pruning does not pay (for tests on
+/// small inputs); None only when the grid has too few points for k
+/// classes. Requires 2 <= k < values.len().
+pub fn optimal_ends_pruned(
+    values: &[f64],
+    weights: &[f64],
+    k: usize,
+    spacing: usize,
+) -> Option<Vec<usize>> {
+    let p = Prefix::new(values, weights);
+    super::jenks_pruning::optimal_ends(values, &p, k, spacing, false)
+}
+
+/// [`optimal_ends`] by the full programme (every row of every layer).
+pub fn optimal_ends_full(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
+    let m = values.len();
     debug_assert!(k >= 1 && k <= m);
     if k == 1 {
         return vec![m];
@@ -166,8 +201,13 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
     if k == m {
         return (1..=m).collect();
     }
-    let p = Prefix::new(values, weights);
-    let layer = Layer::new(&p);
+    full_programme(&Prefix::new(values, weights), k)
+}
+
+/// The full programme on prefix sums of m points, 2 <= k < m.
+fn full_programme(p: &Prefix, k: usize) -> Vec<usize> {
+    let m = p.w.len() - 1;
+    let layer = Layer::new(p);
     // prev[i] = D[c-1][i] for i in 0..=m (cost of the best (c-1)-class split of
     // the first i points); unreachable cells are +inf. From layer 3 on, the
     // cells outside the rows a layer owns hold stale values from two layers
@@ -194,6 +234,7 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
         let job = Job {
             layer: &layer,
             q: &prev,
+            floor: back.last().map(|a| &a[..]),
         };
         if c + 1 < k {
             job.solve(&mut cur[lo..=hi], &mut arg[lo..=hi], (lo, 1), c - 1, hi - 1);
@@ -314,6 +355,12 @@ impl<'a> Layer<'a> {
 struct Job<'a> {
     layer: &'a Layer<'a>,
     q: &'a [f64],
+    /// The previous layer's argmins (none for layer 2, whose previous
+    /// layer is the closed-form first one): the last class of the best
+    /// c-class split of a prefix starts no earlier than that of the best
+    /// (c-1)-class split of the same prefix, so row i scans from
+    /// floor[i] on.
+    floor: Option<&'a [u32]>,
 }
 
 /// Blocks whose candidate range is at least this wide are split across
@@ -424,7 +471,7 @@ impl Job<'_> {
             let mut lo = jlo;
             for (r, (o, g)) in out.iter_mut().zip(arg.iter_mut()).enumerate() {
                 let i = row0 + r * stride;
-                let (best, best_j) = self.row_min(i, lo, jhi.min(i - 1));
+                let (best, best_j) = self.row_min(i, self.from(i, lo), jhi.min(i - 1));
                 *o = best + self.layer.p.s2[i];
                 *g = best_j as u32;
                 lo = best_j;
@@ -433,7 +480,7 @@ impl Job<'_> {
         }
         let mid = out.len() / 2;
         let i = row0 + mid * stride;
-        let (best, best_j) = self.row_min(i, jlo, jhi.min(i - 1));
+        let (best, best_j) = self.row_min(i, self.from(i, jlo), jhi.min(i - 1));
         out[mid] = best + self.layer.p.s2[i];
         arg[mid] = best_j as u32;
         let (out_l, out_r) = out.split_at_mut(mid);
@@ -451,10 +498,55 @@ impl Job<'_> {
         }
     }
 
+    /// The first column row i must scan, given the block's lower bound.
+    #[inline]
+    fn from(&self, i: usize, lo: usize) -> usize {
+        match self.floor {
+            Some(f) => lo.max(f[i] as usize).min(i - 1),
+            None => lo,
+        }
+    }
+
     /// Minimum (without the row constant) and leftmost argmin of row i over
     /// columns a..=b.
     #[inline]
     fn row_min(&self, i: usize, a: usize, b: usize) -> (f64, usize) {
+        if b + 1 - a < BLOCK {
+            self.short_row_min(i, a, b)
+        } else {
+            self.long_row_min(i, a, b)
+        }
+    }
+
+    /// [`Job::row_min`] for short rows (most rows of the deeper levels): a
+    /// plain scan, inlined into the recursion. Written as selects, not
+    /// branches: which candidate wins is unpredictable, and a mispredicted
+    /// branch costs more than the entry itself.
+    #[inline(always)]
+    fn short_row_min(&self, i: usize, a: usize, b: usize) -> (f64, usize) {
+        let l = self.layer;
+        let s1i = l.p.s1[i];
+        let shift = l.total - l.wint[i];
+        let q = &self.q[a..=b];
+        let s1 = &l.p.s1[a..=b];
+        let w = &l.wint[a..=b];
+        let n = q.len().min(s1.len()).min(w.len());
+        let rinv = &l.rinv[..];
+        let (mut best, mut best_j) = (f64::INFINITY, 0);
+        for j in 0..n {
+            let d = s1i - s1[j];
+            let v = q[j] - d * d * rinv[(w[j] + shift) as usize];
+            let lt = v < best;
+            best_j = if lt { j } else { best_j };
+            best = if lt { v } else { best };
+        }
+        (best, a + best_j)
+    }
+
+    /// [`Job::row_min`] for rows of at least `BLOCK` candidates: the
+    /// vectorised block scan.
+    #[inline(never)]
+    fn long_row_min(&self, i: usize, a: usize, b: usize) -> (f64, usize) {
         let l = self.layer;
         let (s1i, wi) = (l.p.s1[i], l.wint[i]);
         let q = &self.q[a..=b];
@@ -467,18 +559,6 @@ impl Job<'_> {
             let d = s1i - s1[j];
             q[j] - d * d * l.rinv[(w[j] + shift) as usize]
         };
-        if n < BLOCK {
-            // Short rows (most rows of the deeper levels): a plain scan.
-            let (mut best, mut best_j) = (entry(0), 0);
-            for j in 1..n {
-                let v = entry(j);
-                if v < best {
-                    best = v;
-                    best_j = j;
-                }
-            }
-            return (best, a + best_j);
-        }
         let full = n - n % LANES;
         let mut blocks = BlockMin {
             best: f64::INFINITY,

@@ -31,6 +31,7 @@ pub mod diverging;
 pub mod equal_interval;
 pub mod fisher_jenks;
 pub mod head_tail;
+mod jenks_pruning;
 pub mod manual;
 pub mod quantile;
 pub mod rounding;
@@ -53,6 +54,9 @@ pub struct Sample {
     missing: usize,
 }
 
+/// Samples at least this long are sorted in parallel.
+const PARALLEL_SORT: usize = 1 << 16;
+
 impl Sample {
     /// Build a sample from values (any order) and a count of missing ones.
     ///
@@ -74,7 +78,14 @@ impl Sample {
                 *v = 0.0;
             }
         }
-        values.sort_unstable_by(f64::total_cmp);
+        // Large samples are sorted on all threads of the pool (the order is
+        // the same: equal keys are equal bits, since -0.0 is gone).
+        if values.len() >= PARALLEL_SORT {
+            use rayon::slice::ParallelSliceMut;
+            values.par_sort_unstable_by(f64::total_cmp);
+        } else {
+            values.sort_unstable_by(f64::total_cmp);
+        }
         Ok(Sample {
             sorted: values,
             missing,
