@@ -48,6 +48,8 @@
 //! When the pruning keeps more than half of a layer's rows (data with
 //! almost no structure), it stops and the full programme runs instead.
 
+use rayon::prelude::*;
+
 use super::fisher_jenks::Prefix;
 
 /// The grid: positions 0 = g(0) < g(1) < ... < g(last) = m. A cell holds
@@ -99,8 +101,8 @@ fn monotone_min<S, E>(
     span: &S,
     entry: &E,
 ) where
-    S: Fn(usize) -> (usize, usize),
-    E: Fn(usize, usize) -> f64,
+    S: Fn(usize) -> (usize, usize) + Sync,
+    E: Fn(usize, usize) -> f64 + Sync,
 {
     if out.is_empty() {
         return;
@@ -122,9 +124,20 @@ fn monotone_min<S, E>(
     out[mid] = best;
     let split = best.1;
     let (left, right) = out.split_at_mut(mid);
-    monotone_min(left, r0, lo, split, span, entry);
-    monotone_min(&mut right[1..], r + 1, split, hi, span, entry);
+    let right = &mut right[1..];
+    if left.len() >= PARALLEL_ROWS {
+        rayon::join(
+            || monotone_min(left, r0, lo, split, span, entry),
+            || monotone_min(right, r + 1, split, hi, span, entry),
+        );
+    } else {
+        monotone_min(left, r0, lo, split, span, entry);
+        monotone_min(right, r + 1, split, hi, span, entry);
+    }
 }
+
+/// Blocks of at least this many rows are split across threads.
+const PARALLEL_ROWS: usize = 2048;
 
 /// The columns lo..=b, or none when b < lo (written so that b - 1 of a
 /// zero b is no wrap-around).
@@ -212,41 +225,50 @@ pub(crate) fn optimal_ends(
                 kept.back.push(prev.map_or(0, |kp| kp.rows[j]));
             }
         };
-        let mut gap_rows: Vec<usize> = Vec::new();
-        let mut gap_out: Vec<(f64, usize)> = Vec::new();
-        for t in 0..anchors.len() {
-            let (x0, d0) = (anchors[t], at[t]);
-            keep(&mut kept, x0, d0);
-            let Some(&x1) = anchors.get(t + 1) else { break };
-            if x1 <= x0 + 1 {
-                continue;
-            }
-            // A lower bound of D[c] over the gap: a row whose last class
-            // starts before x0 costs at least D[c][x0]; one whose last
-            // class starts at a kept row j in [x0, x1 - 2] costs at least
-            // D[c-1][j].
-            let prefix_lb = match prev {
-                None => d0.0,
-                Some(kp) => {
-                    let a = kp.rows.partition_point(|&j| (j as usize) < x0);
-                    let b = kp.rows.partition_point(|&j| (j as usize) + 1 < x1);
-                    kp.d[a..b].iter().copied().fold(d0.0, f64::min)
+        // The gaps between anchors that can hold a row of an optimal
+        // partition, then their rows (in parallel: each gap is its own
+        // block of the monotone programme), then the rows kept, in order.
+        let open: Vec<usize> = (0..anchors.len().saturating_sub(1))
+            .filter(|&t| {
+                let (x0, x1, d0) = (anchors[t], anchors[t + 1], at[t].0);
+                if x1 <= x0 + 1 {
+                    return false;
                 }
-            };
-            let gap_lb = (grid.ceil(x0 + 1)..=grid.ceil(x1 - 1))
-                .map(|a| lower[r - 1][a])
-                .fold(f64::INFINITY, f64::min);
-            if (prefix_lb + gap_lb).is_nan() || prefix_lb + gap_lb > limit {
-                continue;
-            }
-            gap_rows.clear();
-            gap_rows.extend(x0 + 1..x1);
-            gap_out.clear();
-            gap_out.resize(gap_rows.len(), (0.0, 0));
-            row_min(&gap_rows, &mut gap_out, d0.1, at[t + 1].1);
-            computed += gap_rows.len();
-            for (&i, &o) in gap_rows.iter().zip(&gap_out) {
-                keep(&mut kept, i, o);
+                // A lower bound of D[c] over the gap: a row whose last
+                // class starts before x0 costs at least D[c][x0]; one whose
+                // last class starts at a kept row j in [x0, x1 - 2] costs at
+                // least D[c-1][j].
+                let prefix_lb = match prev {
+                    None => d0,
+                    Some(kp) => {
+                        let a = kp.rows.partition_point(|&j| (j as usize) < x0);
+                        let b = kp.rows.partition_point(|&j| (j as usize) + 1 < x1);
+                        kp.d[a..b].iter().copied().fold(d0, f64::min)
+                    }
+                };
+                let gap_lb = (grid.ceil(x0 + 1)..=grid.ceil(x1 - 1))
+                    .map(|a| lower[r - 1][a])
+                    .fold(f64::INFINITY, f64::min);
+                prefix_lb + gap_lb <= limit
+            })
+            .collect();
+        let gaps: Vec<Vec<(f64, usize)>> = open
+            .par_iter()
+            .map(|&t| {
+                let rows: Vec<usize> = (anchors[t] + 1..anchors[t + 1]).collect();
+                let mut out = vec![(0.0, 0); rows.len()];
+                row_min(&rows, &mut out, at[t].1, at[t + 1].1);
+                out
+            })
+            .collect();
+        let mut gaps = open.iter().zip(&gaps).peekable();
+        for (t, (&x0, &d0)) in anchors.iter().zip(&at).enumerate() {
+            keep(&mut kept, x0, d0);
+            if let Some((_, out)) = gaps.next_if(|g| *g.0 == t) {
+                computed += out.len();
+                for (i, &o) in (x0 + 1..).zip(out) {
+                    keep(&mut kept, i, o);
+                }
             }
         }
         if kept.rows.is_empty() || (give_up && computed > m / 2) {
@@ -402,6 +424,7 @@ fn suffix_bounds(p: &Prefix, k: usize, grid: &Grid) -> Vec<Vec<f64>> {
     // split[b]: the least cost of cell b (points g(b)..g(b + 1)) cut once
     // strictly inside (+inf for a cell of one point).
     let split: Vec<f64> = (0..n - 1)
+        .into_par_iter()
         .map(|b| {
             let (i, j) = (grid.at(b), grid.at(b + 1));
             (i + 1..j)
