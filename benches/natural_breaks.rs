@@ -8,7 +8,11 @@
 //!   the baseline;
 //! - `natural`: building the sample (copy + the same sort) and the exact
 //!   natural breaks, with the default thread pool and with one thread;
-//! - `classify`: the full result (bounds, counts, GVF, histogram).
+//! - `full programme`: the same without the pruning (every row of every
+//!   layer), for comparison;
+//! - `classify`: the full result (bounds, counts, GVF, histogram);
+//! - then, for uniform, normal and two-cluster values of the same size, the
+//!   sort, natural breaks and the full programme (3 runs each).
 //!
 //! With `--once` (after `--bench`) it runs natural breaks once and prints
 //! the bounds only, for instruction counts under a profiler.
@@ -21,7 +25,7 @@ mod common;
 use std::time::Instant;
 
 use common::{Results, ms, time};
-use hueproof::classify::{self, Method, Sample};
+use hueproof::classify::{self, Method, Sample, fisher_jenks};
 use hueproof::random::SplitMix64;
 
 const N: usize = 1_000_000;
@@ -78,7 +82,7 @@ fn main() {
     };
     // Interleave the measurements so that a change in machine load hits
     // the baseline and the method alike.
-    let (mut ts, mut tn, mut t1, mut tf) = (vec![], vec![], vec![], vec![]);
+    let (mut ts, mut tn, mut t1, mut tf, mut tp) = (vec![], vec![], vec![], vec![], vec![]);
     for _ in 0..RUNS {
         ts.push(
             time(|| {
@@ -90,6 +94,14 @@ fn main() {
         );
         tn.push(time(natural_run).0);
         t1.push(one.install(|| time(natural_run).0));
+        tp.push(
+            time(|| {
+                let s = Sample::new(values.clone(), 0).unwrap();
+                let (u, w) = fisher_jenks::unique_weighted(s.sorted());
+                std::hint::black_box(fisher_jenks::optimal_ends_full(&u, &w, K));
+            })
+            .0,
+        );
         tf.push(
             time(|| {
                 let s = Sample::new(values.clone(), 0).unwrap();
@@ -109,6 +121,66 @@ fn main() {
     let mut results = Results::new("natural_breaks", "sort", ts);
     results.row("natural breaks", tn);
     results.row("natural breaks, one thread", t1);
+    results.row("natural breaks, full programme", tp);
     results.row("full classification", tf);
     results.print("natural breaks at most 3x the sort");
+
+    // Other shapes of data, same n and k: how much the pruning saves where
+    // the data has less structure (or many ties), against the full
+    // programme, each against the sort of the same values.
+    let shapes: [(&'static str, Vec<f64>); 3] = [
+        ("natural_breaks (uniform)", uniform(N, 0x0DD_BA11)),
+        (
+            "natural_breaks (normal)",
+            lognormal(N, 0x5EED_2027).iter().map(|v| v.ln()).collect(),
+        ),
+        ("natural_breaks (two clusters)", clusters(N, 0xC1A5)),
+    ];
+    for (name, v) in shapes {
+        let (mut ts, mut tn, mut tf) = (vec![], vec![], vec![]);
+        for _ in 0..3 {
+            ts.push(
+                time(|| {
+                    let mut w = v.clone();
+                    w.sort_unstable_by(f64::total_cmp);
+                    std::hint::black_box(&w);
+                })
+                .0,
+            );
+            tn.push(
+                time(|| {
+                    let s = Sample::new(v.clone(), 0).unwrap();
+                    std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
+                })
+                .0,
+            );
+            tf.push(
+                time(|| {
+                    let s = Sample::new(v.clone(), 0).unwrap();
+                    let (u, w) = fisher_jenks::unique_weighted(s.sorted());
+                    std::hint::black_box(fisher_jenks::optimal_ends_full(&u, &w, K));
+                })
+                .0,
+            );
+        }
+        println!("{name}:");
+        let mut results = Results::new(name, "sort", ts);
+        results.row("natural breaks", tn);
+        results.row("natural breaks, full programme", tf);
+        results.print("");
+    }
+}
+
+/// Uniform values on [0, 100).
+fn uniform(n: usize, seed: u64) -> Vec<f64> {
+    let mut rng = SplitMix64(seed);
+    (0..n).map(|_| 100.0 * rng.uniform()).collect()
+}
+
+/// Two far clusters of uniform values, one a third of the data.
+fn clusters(n: usize, seed: u64) -> Vec<f64> {
+    let mut rng = SplitMix64(seed);
+    (0..n)
+        .map(|i| if i % 3 == 0 { 1e4 } else { 0.0 } + rng.uniform())
+        .collect()
 }

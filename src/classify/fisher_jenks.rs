@@ -15,54 +15,53 @@
 //!    layer by layer. The first layer is closed form, D[1][i] = cost(0, i).
 //!    The cost is a Monge array (the within-class sum of squares satisfies
 //!    the quadrangle inequality), so the leftmost optimal j is
-//!    non-decreasing in i, and layers 2..k-2 are solved by divide and
-//!    conquer over that monotone argmin in O(m log m); blocks of at most
-//!    four rows are filled row by row from the previous row's argmin
-//!    instead of being divided further. Blocks with wide candidate ranges
-//!    are split across threads.
-//! 4. The layer k-1 is needed only where the last class can start. Every
+//!    non-decreasing in i.
+//! 4. From 20,000 distinct values on, the pruned programme of
+//!    [`super::jenks_pruning`] runs first: bounds computed on a coarse grid
+//!    prove that most rows of every layer cannot lie on an optimal
+//!    partition, and those rows are never computed. It finds the same ends
+//!    as the full programme below. Where it would not pay (it stops as
+//!    soon as a layer needs more than half of its rows, or when the
+//!    rounding margin is as large as the costs), the full programme runs.
+//! 5. The full programme solves layers 2..k-2 by divide and conquer over
+//!    the monotone argmin in O(m log m); blocks of at most four rows are
+//!    filled row by row from the previous row's argmin instead of being
+//!    divided further, and blocks with wide candidate ranges are split
+//!    across threads. Row i of layer c scans from the argmin of row i in
+//!    layer c - 1 on (with more classes, the last class of a prefix starts
+//!    no earlier: the monotonicity used with the quadrangle inequality
+//!    since Yao 1980, checked here by the tests against the plain
+//!    programme).
+//! 6. The layer k-1 is needed only where the last class can start. Every
 //!    s-th row (s = 4 sqrt(m)) is solved first; a gap between two such rows
 //!    i0 < i1 is solved only if the exact lower bound
 //!    D[k-1][i0] + cost(i1 - 1, m) (D grows with the prefix, and a class's
 //!    sum of squares grows when points are added) can beat the best split
 //!    found so far, with a margin of 1e-9 of the total sum of squares for
-//!    rounding. Pruning never changes the result; on 1,000,000 lognormal
-//!    values it removes about half of that layer's work. The last layer is
-//!    one cell, O(m). Total O(k m log m) time after sorting and O(k m)
-//!    memory for the back-pointers.
-//! 5. The candidate scan of one row, q[j] - (S1[i] - S1[j])^2 / (W[i] - W[j]),
+//!    rounding. Pruning never changes the result. The last layer is one
+//!    cell, O(m). Total O(k m log m) time after sorting and O(k m) memory
+//!    for the back-pointers.
+//! 7. The candidate scan of one row, q[j] - (S1[i] - S1[j])^2 / (W[i] - W[j]),
 //!    is written so that the compiler vectorises it with the baseline
 //!    instruction set (no target-specific flags, no unsafe code): class
 //!    weights are whole numbers, so the division becomes a multiplication
-//!    by a tabulated reciprocal (within an ulp of a division); the table is
-//!    reversed so that a row's reciprocals are one contiguous slice when
-//!    the candidates have weight 1 (otherwise they are gathered tile by
-//!    tile); the loop keeps per-lane minima of blocks of 32 candidates
-//!    only, and the leftmost argmin is recovered by rescanning the one
-//!    block that holds the minimum with the same arithmetic. Rows shorter
-//!    than a block use a plain scan.
-//!
-//! 6. Memory touched for the first time costs a page fault, so each run
+//!    by a tabulated reciprocal (exactly 1.0 / d, so the pruned programme,
+//!    which divides, computes the same entries); the table is reversed so
+//!    that a row's reciprocals are one contiguous slice when the candidates
+//!    have weight 1 (otherwise they are gathered tile by tile); the loop
+//!    keeps per-lane minima of blocks of 32 candidates only, and the
+//!    leftmost argmin is recovered by rescanning the one block that holds
+//!    the minimum with the same arithmetic. Rows shorter than a block use a
+//!    plain scan written with selects instead of branches.
+//! 8. Memory touched for the first time costs a page fault, so each run
 //!    allocates little: the prefix weights are integers shared with the
 //!    reciprocal table, q is written over the previous layer, and only the
 //!    pruned layer is reset to +inf.
 //!
-//! Speed (`cargo bench --bench natural_breaks`, k = 7, 1,000,000 lognormal
-//! values, shared 2-core machine): about 5.7-6.2 times the time of sorting
-//! the same values (medians), with the default pool or one thread alike
-//! under load. The aim of at most 3 times the sort is not reached. Where
-//! the time goes (one thread): the sort inside the sample, about 1; setup
-//! (unique values, prefix sums, table), 0.5-1; each of the four full
-//! layers, 1-1.3; the pruned layer, about 0.2 (its gaps keep only a few
-//! thousand of the million rows). Within the layers, about a third is the
-//! vectorised scan of long rows and about two thirds the recursion and the
-//! short rows of the deeper levels (3.8 million per run, 5 candidates
-//! each). Tried and not kept, measured on
-//! the same input: SMAWK per layer (Aggarwal et al. 1987; 6 entry
-//! evaluations per row instead of 17, but scalar, serial and branchy: 1.4-1.5
-//! times slower, with packed per-level copies of rows and columns as well),
-//! leaf blocks of 8 rows scanned side by side in vector lanes, and other
-//! block and leaf sizes (no difference beyond the noise).
+//! Speed: see [`super::jenks_pruning`] and the README ("Speed"). On
+//! 1,000,000 lognormal values, k = 7, the full programme alone takes about
+//! 4.5-5 times the sort of the same values, and the default (pruned)
+//! path about 2.
 //!
 //! The bounds reported are the largest value of each class, so they are
 //! actual data values. With fewer distinct values than classes, each

@@ -45,8 +45,23 @@
 //! All three programmes on rows (grid, suffix bounds, kept rows) use the
 //! monotone leftmost argmin of a Monge array (the within-class sum of
 //! squares satisfies the quadrangle inequality) with divide and conquer.
-//! When the pruning keeps more than half of a layer's rows (data with
-//! almost no structure), it stops and the full programme runs instead.
+//! The grid has about 8,192 cells of at most m / 8,192 points each, and a
+//! cell of more than one point spans less than 1/8,192 of the value range
+//! (fine cells in the sparse tail of skewed data, where a class holds few
+//! points far apart).
+//!
+//! It stops early, and the full programme runs instead, where pruning
+//! cannot pay: when a layer computes more than half of its rows, and when
+//! the rounding margin exceeds 1e-4 of U (classes tiny next to the total
+//! spread, as with far clusters, where every cost is within rounding of
+//! its neighbours).
+//!
+//! Measured on 1,000,000 lognormal values, k = 7 (`cargo bench --bench
+//! natural_breaks`): the grid bounds take about 8 ms; the six layers
+//! compute about 97,000, 65,000, 37,000, 19,000, 11,000 and 10,000 rows
+//! instead of a million each and keep 87,000 down to 75; the whole is
+//! about 2 times the sort of the same values, against about 4 for the
+//! full programme.
 
 use rayon::prelude::*;
 
@@ -181,6 +196,12 @@ pub(crate) fn optimal_ends(
     );
     let upper = upper?;
     let margin = 1e-9 * p.s2[m].abs();
+    // Data whose classes are tiny next to its total spread (far clusters)
+    // leave the rounding margin as large as the costs compared: nothing
+    // could be pruned.
+    if give_up && margin > 1e-4 * upper {
+        return None;
+    }
     let limit = upper + margin;
     // lb(r, i): lower bound of the best r-class split of points i..m.
     let lb = |r: usize, i: usize| lower[r - 1][grid.ceil(i)];
