@@ -2,7 +2,10 @@
 //! use every path of it: the vector-lane candidate scan (rows of 16 or more
 //! candidates), the gathered reciprocals (candidate ranges containing
 //! repeated values), the row-by-row short blocks, and the pruned sparse pass
-//! of the layer before the last cell (several sparse rows and gaps).
+//! of the layer before the last cell (several sparse rows and gaps); and of
+//! the grid-bounded pruned programme (`src/classify/jenks_pruning.rs`),
+//! forced onto small inputs with fine grids and run on large ones of
+//! several shapes, which must find the same class ends as the full one.
 //!
 //! Reference: Fisher (1958), "On grouping for maximum homogeneity", JASA
 //! 53(284): the optimal partition is the minimum of the dynamic programme
@@ -162,5 +165,28 @@ fn pruned_programme_is_used_and_exact_on_a_large_input() {
             .unwrap_or_else(|| panic!("k {k}: the pruned programme stopped early"));
         assert_eq!(pruned, full, "k {k}");
         assert_eq!(fisher_jenks::optimal_ends(&u, &w, k), full, "k {k}");
+    }
+}
+
+/// The same on 30,000 values of other shapes: flat, two far clusters (where
+/// the default path gives the pruning up), and six narrow clusters; the
+/// pruned programme, made to run to the end, still finds the full
+/// programme's ends.
+#[test]
+fn pruned_programme_is_exact_on_large_inputs_of_other_shapes() {
+    for kind in [2u8, 3, 4] {
+        let sample = Sample::new(shaped(kind, 5, 30_000), 0).unwrap();
+        let (u, w) = fisher_jenks::unique_weighted(sample.sorted());
+        assert!(u.len() > 20_000, "kind {kind}: {} distinct values", u.len());
+        for k in [3, 7] {
+            let full = fisher_jenks::optimal_ends_full(&u, &w, k);
+            let pruned = fisher_jenks::optimal_ends_pruned(&u, &w, k, u.len().div_ceil(8192));
+            assert_eq!(pruned.as_ref(), Some(&full), "kind {kind}, k {k}");
+            assert_eq!(
+                fisher_jenks::optimal_ends(&u, &w, k),
+                full,
+                "kind {kind}, k {k}"
+            );
+        }
     }
 }
