@@ -137,6 +137,37 @@ fn matches_reference_library_for_every_shared_method() {
     }
 }
 
+/// Reference set A, Fisher-Jenks runs: the pruned programme (used by
+/// default from 20,000 distinct values on, larger than these datasets),
+/// forced onto them with grids of 2 to 8 points per cell, gives the
+/// reference library's bounds too.
+#[test]
+fn pruned_natural_breaks_match_reference_library() {
+    let data = inputs();
+    let mut checked = 0;
+    for e in results().iter().filter(|e| e["method"] == "FisherJenks") {
+        let ds = e["dataset"].as_str().unwrap();
+        let sample = Sample::new(data[ds].clone(), 0).unwrap();
+        let (u, w) = fisher_jenks::unique_weighted(sample.sorted());
+        let k = e["k"].as_u64().unwrap() as usize;
+        let bins = floats(&e["bins"]);
+        for spacing in [2, 3, 5, 8] {
+            let ends = fisher_jenks::optimal_ends_pruned(&u, &w, k, spacing)
+                .unwrap_or_else(|| panic!("{ds} k {k} spacing {spacing}: grid too small"));
+            let bounds: Vec<f64> = ends.iter().map(|&e| u[e - 1]).collect();
+            assert_eq!(bounds.len(), bins.len());
+            for (a, b) in bounds.iter().zip(&bins) {
+                assert!(
+                    rel_close(*a, *b, 1e-9),
+                    "{ds} k {k} spacing {spacing}: {a} vs {b}"
+                );
+            }
+            checked += 1;
+        }
+    }
+    assert!(checked >= 12, "{checked} runs checked");
+}
+
 /// Reference set A: the class counts and GVF follow from the bounds alone,
 /// so manual breaks at the reference's bounds reproduce its counts and fit
 /// (this checks the upper-inclusive class assignment on its own).
