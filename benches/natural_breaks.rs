@@ -76,32 +76,14 @@ fn main() {
         .num_threads(1)
         .build()
         .unwrap();
-    let natural_run = || {
-        let s = Sample::new(values.clone(), 0).unwrap();
-        std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
-    };
     // Interleave the measurements so that a change in machine load hits
     // the baseline and the method alike.
     let (mut ts, mut tn, mut t1, mut tf, mut tp) = (vec![], vec![], vec![], vec![], vec![]);
     for _ in 0..RUNS {
-        ts.push(
-            time(|| {
-                let mut v = values.clone();
-                v.sort_unstable_by(f64::total_cmp);
-                std::hint::black_box(&v);
-            })
-            .0,
-        );
-        tn.push(time(natural_run).0);
-        t1.push(one.install(|| time(natural_run).0));
-        tp.push(
-            time(|| {
-                let s = Sample::new(values.clone(), 0).unwrap();
-                let (u, w) = fisher_jenks::unique_weighted(s.sorted());
-                std::hint::black_box(fisher_jenks::optimal_ends_full(&u, &w, K));
-            })
-            .0,
-        );
+        ts.push(time(|| sort_run(&values)).0);
+        tn.push(time(|| natural_run(&values)).0);
+        t1.push(one.install(|| time(|| natural_run(&values)).0));
+        tp.push(time(|| full_programme_run(&values)).0);
         tf.push(
             time(|| {
                 let s = Sample::new(values.clone(), 0).unwrap();
@@ -126,8 +108,8 @@ fn main() {
     results.print("natural breaks at most 3x the sort");
 
     // Other shapes of data, same n and k: how much the pruning saves where
-    // the data has less structure (or many ties), against the full
-    // programme, each against the sort of the same values.
+    // the data has less structure, against the full programme, each
+    // against the sort of the same values.
     let shapes: [(&'static str, Vec<f64>); 3] = [
         ("natural_breaks (uniform)", uniform(N, 0x0DD_BA11)),
         (
@@ -139,29 +121,9 @@ fn main() {
     for (name, v) in shapes {
         let (mut ts, mut tn, mut tf) = (vec![], vec![], vec![]);
         for _ in 0..3 {
-            ts.push(
-                time(|| {
-                    let mut w = v.clone();
-                    w.sort_unstable_by(f64::total_cmp);
-                    std::hint::black_box(&w);
-                })
-                .0,
-            );
-            tn.push(
-                time(|| {
-                    let s = Sample::new(v.clone(), 0).unwrap();
-                    std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
-                })
-                .0,
-            );
-            tf.push(
-                time(|| {
-                    let s = Sample::new(v.clone(), 0).unwrap();
-                    let (u, w) = fisher_jenks::unique_weighted(s.sorted());
-                    std::hint::black_box(fisher_jenks::optimal_ends_full(&u, &w, K));
-                })
-                .0,
-            );
+            ts.push(time(|| sort_run(&v)).0);
+            tn.push(time(|| natural_run(&v)).0);
+            tf.push(time(|| full_programme_run(&v)).0);
         }
         println!("{name}:");
         let mut results = Results::new(name, "sort", ts);
@@ -169,6 +131,28 @@ fn main() {
         results.row("natural breaks, full programme", tf);
         results.print("");
     }
+}
+
+/// The baseline: copy and sort.
+fn sort_run(values: &[f64]) {
+    let mut v = values.to_vec();
+    v.sort_unstable_by(f64::total_cmp);
+    std::hint::black_box(&v);
+}
+
+/// Natural breaks as the library runs them: the sample (copy and sort),
+/// then the bounds.
+fn natural_run(values: &[f64]) {
+    let s = Sample::new(values.to_vec(), 0).unwrap();
+    let method = Method::NaturalBreaks { classes: K };
+    std::hint::black_box(classify::method_bounds(&s, &method).unwrap());
+}
+
+/// The same with the full programme (no pruning).
+fn full_programme_run(values: &[f64]) {
+    let s = Sample::new(values.to_vec(), 0).unwrap();
+    let (u, w) = fisher_jenks::unique_weighted(s.sorted());
+    std::hint::black_box(fisher_jenks::optimal_ends_full(&u, &w, K));
 }
 
 /// Uniform values on [0, 100).

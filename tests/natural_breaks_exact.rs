@@ -18,16 +18,22 @@ mod common;
 use hueproof::classify::{Sample, fisher_jenks};
 use proptest::prelude::*;
 
-/// Lognormal-like values (exp of a sum of uniforms) rounded to `step`, so
-/// that a coarse step gives many repeated values and a fine one almost none.
-fn values(seed: u64, n: usize, step: f64) -> Vec<f64> {
+/// Uniform values on [0, 1) from a 64-bit linear congruential generator
+/// (Knuth's MMIX constants), top 53 bits.
+fn uniforms(seed: u64) -> impl FnMut() -> f64 {
     let mut s = seed;
-    let mut uniform = || {
+    move || {
         s = s
             .wrapping_mul(6364136223846793005)
             .wrapping_add(1442695040888963407);
         (s >> 11) as f64 / (1u64 << 53) as f64
-    };
+    }
+}
+
+/// Lognormal-like values (exp of a sum of uniforms) rounded to `step`, so
+/// that a coarse step gives many repeated values and a fine one almost none.
+fn values(seed: u64, n: usize, step: f64) -> Vec<f64> {
+    let mut uniform = uniforms(seed);
     (0..n)
         .map(|_| {
             let z = (0..4).map(|_| uniform()).sum::<f64>() - 2.0;
@@ -91,13 +97,7 @@ fn every_class_count_equals_plain_programme() {
 /// Data shapes for the pruned programme: skewed with and without ties,
 /// flat (uniform), two far clusters, and long runs of one value.
 fn shaped(kind: u8, seed: u64, n: usize) -> Vec<f64> {
-    let mut s = seed ^ 0x9E37_79B9_7F4A_7C15;
-    let mut uniform = || {
-        s = s
-            .wrapping_mul(6364136223846793005)
-            .wrapping_add(1442695040888963407);
-        (s >> 11) as f64 / (1u64 << 53) as f64
-    };
+    let mut uniform = uniforms(seed ^ 0x9E37_79B9_7F4A_7C15);
     match kind {
         0 => values(seed, n, 1e-6),
         1 => values(seed, n, 0.5),
