@@ -18,7 +18,8 @@
 //! - the number of missing values, which never enter a class.
 //!
 //! Methods, one file each: [`equal_interval`], [`quantile`],
-//! [`fisher_jenks`] (exact optimal natural breaks), [`std_dev`],
+//! [`fisher_jenks`] (exact optimal natural breaks; on large inputs first
+//! through the grid-bounded pruning of `jenks_pruning`), [`std_dev`],
 //! [`head_tail`] and [`manual`]. On top of any result, [`rounding`] rounds
 //! the breaks to readable values and counts the observations that changed
 //! class, and [`diverging`] arranges classes around a midpoint. Unclassed
