@@ -17,7 +17,7 @@
 //!    the quadrangle inequality), so the leftmost optimal j is
 //!    non-decreasing in i.
 //! 4. From 20,000 distinct values on, the pruned programme of
-//!    [`super::jenks_pruning`] runs first: bounds computed on a coarse grid
+//!    `jenks_pruning.rs` runs first: bounds computed on a coarse grid
 //!    prove that most rows of every layer cannot lie on an optimal
 //!    partition, and those rows are never computed. It finds the same ends
 //!    as the full programme below. Where it would not pay (it stops as
@@ -58,7 +58,7 @@
 //!    reciprocal table, q is written over the previous layer, and only the
 //!    pruned layer is reset to +inf.
 //!
-//! Speed: see [`super::jenks_pruning`] and the README ("Speed"). On
+//! Speed: see `jenks_pruning.rs` and the README ("Speed"). On
 //! 1,000,000 lognormal values, k = 7, the full programme alone takes about
 //! 4.5-5 times the sort of the same values, and the default (pruned)
 //! path about 2.
@@ -170,7 +170,7 @@ pub fn optimal_ends(values: &[f64], weights: &[f64], k: usize) -> Vec<usize> {
 }
 
 /// Inputs with at least this many distinct values are first tried with the
-/// pruned programme ([`super::jenks_pruning`]).
+/// pruned programme (`jenks_pruning.rs`).
 const PRUNE_FROM: usize = 20_000;
 
 /// Grid points of the pruned programme's bounds.
