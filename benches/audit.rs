@@ -147,7 +147,6 @@ fn main() {
             time(|| labels::render_labels(name, &label, DPI)).0,
         );
         add("geometry", time(|| measure::geometry(&lab, n, DPI)).0);
-        add("core mask", time(|| lab.core()).0);
         let boxes = measure::text_boxes(&lab, label.texts.len());
         let parts = labels::fill_label(n) as usize;
         let (t, reads) =

@@ -349,3 +349,62 @@ fn the_palette_simulates_every_pixel_as_the_whole_raster_does() {
         }
     }
 }
+
+#[test]
+fn random_label_rasters_have_the_same_geometry_both_ways() {
+    // Label rasters made of random rectangles and single pixels: classes,
+    // swatches, borders (runs of them wider and narrower than the widest
+    // gap bridged), the background, text and other drawing; thin strips
+    // and squares of odd sizes, one pixel wide or high included.
+    let mut rng = SplitMix64(0x6e0_3e7a);
+    let pick = |rng: &mut SplitMix64, n: usize| (rng.next_u64() % n as u64) as usize;
+    let sizes = [
+        (1, 1),
+        (1, 9),
+        (9, 1),
+        (2, 2),
+        (3, 17),
+        (17, 3),
+        (31, 29),
+        (64, 48),
+        (97, 61),
+    ];
+    for (case, &(w, h)) in sizes.iter().cycle().take(45).enumerate() {
+        let classes = 1 + case % 4;
+        let mut ids = vec![labels::BACKGROUND; w * h];
+        let label = |rng: &mut SplitMix64| match pick(rng, 10) {
+            0 => labels::BACKGROUND,
+            1 | 2 => labels::BORDER,
+            3 => labels::TEXT_BASE + pick(rng, 2) as u16,
+            4 => labels::OTHER,
+            5 => labels::swatch_label(pick(rng, classes)),
+            // One past the classes: a fill label no class owns.
+            6 if case % 3 == 0 => labels::fill_label(classes),
+            _ => labels::fill_label(pick(rng, classes)),
+        };
+        for _ in 0..pick(&mut rng, 40) {
+            let (x0, y0) = (pick(&mut rng, w), pick(&mut rng, h));
+            let (x1, y1) = (
+                (x0 + 1 + pick(&mut rng, w / 2 + 1)).min(w),
+                (y0 + 1 + pick(&mut rng, h / 2 + 1)).min(h),
+            );
+            let l = label(&mut rng);
+            for y in y0..y1 {
+                ids[y * w + x0..y * w + x1].fill(l);
+            }
+        }
+        for _ in 0..pick(&mut rng, w * h / 8 + 1) {
+            let i = pick(&mut rng, w * h);
+            ids[i] = label(&mut rng);
+        }
+        let lab = Labels {
+            width: w as u32,
+            height: h as u32,
+            ids,
+        };
+        for dpi in [24.0, 96.0] {
+            let g = measure::geometry(&lab, classes, dpi);
+            assert_same_geometry(&g, &plain_geometry(&lab, classes, dpi));
+        }
+    }
+}
