@@ -299,22 +299,41 @@ fn sweep<'a, D: Chamfer + 'a>(mut row: impl Iterator<Item = &'a mut D>) {
     }
 }
 
-/// How many leading labels of `s` equal `id` (compared 16 at a time).
+/// How many leading values of `s` equal `v` (compared 16 at a time).
 #[inline]
-fn same_from(s: &[u16], id: u16) -> usize {
+fn same_from<T: Copy + PartialEq>(s: &[T], v: T) -> usize {
     let mut n = 0;
     let mut chunks = s.chunks_exact(16);
     for c in &mut chunks {
-        if c.iter().fold(0u16, |acc, &v| acc | (v ^ id)) != 0 {
-            return n + c.iter().position(|&v| v != id).expect("a label differs");
+        if c.iter().fold(false, |acc, &x| acc | (x != v)) {
+            return n + c.iter().position(|&x| x != v).expect("a value differs");
         }
         n += 16;
     }
     n + chunks
         .remainder()
         .iter()
-        .position(|&v| v != id)
+        .position(|&x| x != v)
         .unwrap_or(chunks.remainder().len())
+}
+
+/// How many leading pixels of the RGBA8 bytes `s` are the pixel `word`
+/// (its four bytes, little-endian; compared 16 pixels at a time).
+#[inline]
+fn same_colour(s: &[u8], word: u32) -> usize {
+    let px = |p: &[u8]| u32::from_le_bytes([p[0], p[1], p[2], p[3]]);
+    let mut n = 0;
+    let mut chunks = s.chunks_exact(64);
+    for c in &mut chunks {
+        if c.chunks_exact(4).fold(0, |acc, p| acc | (px(p) ^ word)) != 0 {
+            break;
+        }
+        n += 16;
+    }
+    n + s[4 * n..]
+        .chunks_exact(4)
+        .position(|p| px(p) != word)
+        .unwrap_or((s.len() - 4 * n) / 4)
 }
 
 /// How many leading labels of `a` equal those of `b` at the same place
@@ -725,38 +744,45 @@ impl Reads {
         };
         // Runs of pixels alike in label, core and colour are counted at
         // once (a run never crosses into the raster's last pixels, whose
-        // colours are kept apart).
+        // colours are kept apart): runs of one label first, skipped when
+        // the label is not read, then within them runs of core pixels
+        // (for the measured labels), then runs of one colour.
         let tail_from = palette.tail_from;
-        let mut add = |start: usize, len: usize, id: u16, c: bool| {
-            if measured(id) {
-                if c {
-                    core[id as usize].add(palette.slot(rgba, start), len);
-                }
-            } else if id >= labels::TEXT_BASE {
-                text.add(palette.slot(rgba, start), len);
+        let (ids, core_mask) = (&l.ids[..], &g.core[..]);
+        let mut colours = |from: usize, to: usize, tally: &mut Tally| {
+            let mut i = from;
+            while i < to {
+                let end = if i < tail_from { to.min(tail_from) } else { to };
+                let word = u32::from_le_bytes([
+                    rgba[4 * i],
+                    rgba[4 * i + 1],
+                    rgba[4 * i + 2],
+                    rgba[4 * i + 3],
+                ]);
+                let len = 1 + same_colour(&rgba[4 * (i + 1)..4 * end], word);
+                tally.add(palette.slot(rgba, i), len);
+                i += len;
             }
         };
-        let mut run: Option<(usize, u16, bool, u32)> = None;
-        for (i, ((&id, &c), px)) in l
-            .ids
-            .iter()
-            .zip(&g.core)
-            .zip(rgba.chunks_exact(4))
-            .enumerate()
-        {
-            let word = u32::from_le_bytes([px[0], px[1], px[2], px[3]]);
-            match run {
-                Some((_, rid, rc, rw)) if rid == id && rc == c && rw == word && i != tail_from => {}
-                _ => {
-                    if let Some((start, rid, rc, _)) = run {
-                        add(start, i - start, rid, rc);
+        let mut i = 0;
+        while i < ids.len() {
+            let id = ids[i];
+            let end = i + 1 + same_from(&ids[i + 1..], id);
+            if measured(id) {
+                let tally = &mut core[id as usize];
+                let mut j = i;
+                while j < end {
+                    let c = core_mask[j];
+                    let k = j + 1 + same_from(&core_mask[j + 1..end], c);
+                    if c {
+                        colours(j, k, tally);
                     }
-                    run = Some((i, id, c, word));
+                    j = k;
                 }
+            } else if id >= labels::TEXT_BASE {
+                colours(i, end, &mut text);
             }
-        }
-        if let Some((start, rid, rc, _)) = run {
-            add(start, l.ids.len() - start, rid, rc);
+            i = end;
         }
         let mut parts_counts: Vec<Counts> = core.into_iter().map(Tally::finish).collect();
         // Labels without core pixels (marks under 3 px): all their pixels.

@@ -239,29 +239,57 @@ pub struct Examined {
 /// Audit as [`audit_svg`] does, keeping the normal raster and the label
 /// raster.
 pub fn examine(name: &Path, svg_text: &str, opt: &Options) -> Result<Examined> {
-    let mut label = labels::label_svg(name, svg_text)?;
-    let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
     let px_per_mm = opt.dpi / 25.4;
     let min_area = (opt.min_class_area_mm2 * px_per_mm * px_per_mm).ceil() as usize;
     // The figure's raster and the label raster with its geometry are
-    // independent: made side by side (errors reported in that order).
-    // Classes detected from fills (SVG from other tools) are settled on
-    // the label raster before its geometry is measured.
-    let label_ref = &mut label;
+    // independent and made side by side. The label SVG is written first
+    // on the label side; the figure's side needs only its background
+    // colour, after parsing, and takes the label SVG from the label side
+    // (or writes it, when that side has not started yet). Errors are
+    // reported in that order: label SVG, figure, label raster. Classes
+    // detected from fills (SVG from other tools) are settled on the label
+    // raster before its geometry is measured.
+    labels::refuse_entities(name, svg_text)?;
+    let written: std::sync::OnceLock<Result<labels::LabelSvg>> = std::sync::OnceLock::new();
+    let label_svg = || {
+        written
+            .get_or_init(|| labels::label_svg(name, svg_text))
+            .as_ref()
+    };
     let (img, labelled) = rayon::join(
         || {
             let doc = raster::parse(name, svg_text.as_bytes())?;
-            raster::render(name, &doc, opt.dpi, bg).map(|img| (img, doc.refused))
+            // On an error in the label SVG that error is reported, not this.
+            let Ok(label) = label_svg() else {
+                return Ok(None);
+            };
+            let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
+            raster::render(name, &doc, opt.dpi, bg).map(|img| Some((img, doc.refused, bg)))
         },
-        move || {
-            let mut lab = labels::render_labels(name, label_ref, opt.dpi)?;
-            detect::settle_detected(label_ref, &mut lab, min_area.max(1), opt.scheme);
-            let geometry = measure::geometry(&lab, label_ref.classes.ids.len(), opt.dpi);
-            Ok::<_, crate::error::Error>((lab, geometry))
+        || {
+            let Ok(written) = label_svg() else {
+                return Ok(None);
+            };
+            let mut lab = labels::render_labels(name, written, opt.dpi)?;
+            // What the audit keeps of the label SVG (not its text), with
+            // its classes settled.
+            let mut label = labels::LabelSvg {
+                svg: String::new(),
+                classes: written.classes.clone(),
+                texts: written.texts.clone(),
+                detected: written.detected.clone(),
+            };
+            detect::settle_detected(&mut label, &mut lab, min_area.max(1), opt.scheme);
+            let geometry = measure::geometry(&lab, label.classes.ids.len(), opt.dpi);
+            let boxes = measure::text_boxes(&lab, label.texts.len());
+            Ok::<_, crate::error::Error>(Some((label, lab, geometry, boxes)))
         },
     );
-    let (img, refused) = img?;
-    let (lab, geometry) = labelled?;
+    if let Some(Err(e)) = written.into_inner() {
+        return Err(e);
+    }
+    let (img, refused, bg) = img?.expect("the label SVG was written");
+    let (label, lab, geometry, boxes) = labelled?.expect("the label SVG was written");
     let n = label.classes.ids.len();
     let dist_mm = opt.viewing_distance_cm * 10.0;
     let angle_deg: Vec<f64> = geometry
@@ -280,7 +308,6 @@ pub fn examine(name: &Path, svg_text: &str, opt: &Options) -> Result<Examined> {
         texts: label.texts.clone(),
         text_contrast: Vec::new(),
     };
-    let boxes = measure::text_boxes(&lab, label.texts.len());
     // What the measurements read, gathered once; per view only the
     // distinct colours read are simulated (the same values as simulating
     // the whole raster: see measure::Palette).
