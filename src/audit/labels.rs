@@ -689,11 +689,12 @@ pub struct Labels {
     pub ids: Vec<u16>,
 }
 
-/// Render the label SVG at `dpi` and decode it. Colours that are no label
+/// Render the label SVG at `dpi` (with [`raster::render_flat`]: the same
+/// pixels as [`raster::render`]) and decode it. Colours that are no label
 /// (there should be none without anti-aliasing) decode as [`OTHER`].
 pub fn render_labels(name: &Path, label: &LabelSvg, dpi: f64) -> Result<Labels> {
     let doc = raster::parse(name, label.svg.as_bytes())?;
-    let img = raster::render(name, &doc, dpi, Srgb::new(0.0, 0.0, 0.0))?;
+    let img = raster::render_flat(name, &doc, dpi, Srgb::new(0.0, 0.0, 0.0))?;
     let top = fill_label(label.classes.ids.len());
     let ids = img
         .rgba

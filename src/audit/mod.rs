@@ -319,19 +319,27 @@ pub fn examine(name: &Path, svg_text: &str, opt: &Options) -> Result<Examined> {
         TEXT_MARGIN_PX,
         labels::fill_label(n) as usize,
     );
-    for v in &opt.views {
-        let sim = Simulation::new(v.view, opt.model);
-        let seen = reads.palette.simulate(&sim);
-        let part = |l: u16| reads.part(&seen, l).map(rgb8);
-        let background = part(labels::BACKGROUND).unwrap_or(sim.apply(bg));
-        m.colors
-            .push((0..n).map(|k| part(labels::fill_label(k))).collect());
-        m.swatches
-            .push((0..n).map(|k| part(labels::swatch_label(k))).collect());
-        let lb = crate::color::wcag::relative_luminance(background);
-        m.boundary.push(reads.boundary(&seen, lb));
-        m.text_contrast.push(
-            boxes
+    // The views are independent: measured side by side, kept in order.
+    use rayon::prelude::*;
+    type ViewMeasures = (
+        Vec<Option<Srgb>>,
+        Vec<Option<Srgb>>,
+        Srgb,
+        Vec<Option<f64>>,
+        Vec<Option<f64>>,
+    );
+    let views: Vec<ViewMeasures> = opt
+        .views
+        .par_iter()
+        .map(|v| {
+            let sim = Simulation::new(v.view, opt.model);
+            let seen = reads.palette.simulate(&sim);
+            let part = |l: u16| reads.part(&seen, l).map(rgb8);
+            let background = part(labels::BACKGROUND).unwrap_or(sim.apply(bg));
+            let colors = (0..n).map(|k| part(labels::fill_label(k))).collect();
+            let swatches = (0..n).map(|k| part(labels::swatch_label(k))).collect();
+            let lb = crate::color::wcag::relative_luminance(background);
+            let text_contrast = boxes
                 .iter()
                 .zip(&m.texts)
                 .enumerate()
@@ -344,8 +352,21 @@ pub fn examine(name: &Path, svg_text: &str, opt: &Options) -> Result<Examined> {
                     };
                     Some(crate::color::wcag::contrast_ratio(fg, rgb8(around)))
                 })
-                .collect(),
-        );
+                .collect();
+            (
+                colors,
+                swatches,
+                background,
+                reads.boundary(&seen, lb),
+                text_contrast,
+            )
+        })
+        .collect();
+    for (colors, swatches, background, boundary, text_contrast) in views {
+        m.colors.push(colors);
+        m.swatches.push(swatches);
+        m.boundary.push(boundary);
+        m.text_contrast.push(text_contrast);
         m.background.push(background);
     }
     let findings = judge::judge(&m, opt);
