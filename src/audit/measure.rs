@@ -5,7 +5,9 @@
 //! the background (per-channel median of core pixels of the simulated
 //! raster). Per view only the distinct colours the measurements read are
 //! simulated ([`Palette`], [`Reads`]): the same values as reading the
-//! whole simulated raster, at a fraction of the cost.
+//! whole simulated raster, at a fraction of the cost. The geometry takes
+//! two passes over the label raster for its distances, core mask and
+//! components, and one for its row and column transitions.
 
 use super::labels::{self, Labels, Part};
 use crate::color::Srgb;
@@ -29,7 +31,8 @@ pub struct Geometry {
     /// Per class: the pixel runs crossing from the class into the
     /// background (class-side pixel, border pixels, background-side pixel).
     pub crossings: Vec<Vec<Vec<usize>>>,
-    /// Core pixels.
+    /// Core pixels: those whose whole 3 x 3 neighbourhood (inside the
+    /// image) carries the same label. The rest are edge pixels.
     pub core: Vec<bool>,
 }
 

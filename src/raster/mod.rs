@@ -4,7 +4,10 @@
 //!
 //! SVG user units are CSS pixels (96 per inch); rendering at `dpi` scales by
 //! `dpi / 96`. The output is straight (not premultiplied) RGBA8 composited
-//! over an opaque background, ready for the vision models.
+//! over an opaque background, ready for the vision models. The audit's
+//! label raster, painted in flat opaque colours without anti-aliasing, is
+//! rendered with [`render_flat`]: the same pixels, with clipped groups
+//! composited more cheaply ([`flat`]).
 //!
 //! SVG from other tools is untrusted: no external file or address is ever
 //! read (an `<image>` that points outside the document is left out and
