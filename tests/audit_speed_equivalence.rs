@@ -413,6 +413,17 @@ fn random_label_rasters_have_the_same_geometry_both_ways() {
             let g = measure::geometry(&lab, classes, dpi);
             assert_same_geometry(&g, &plain_geometry(&lab, classes, dpi));
         }
+        // Text boxes: the extremes of each text element's pixels.
+        let mut want: Vec<Option<[usize; 4]>> = vec![None; 2];
+        for (i, &id) in lab.ids.iter().enumerate() {
+            if id >= labels::TEXT_BASE {
+                let (x, y) = (i % w, i / w);
+                let b = want[(id - labels::TEXT_BASE) as usize].get_or_insert([x, y, x, y]);
+                *b = [b[0].min(x), b[1].min(y), b[2].max(x), b[3].max(y)];
+            }
+        }
+        assert_eq!(measure::text_boxes(&lab, 2), want);
+        assert_eq!(measure::text_boxes(&lab, 1), want[..1]);
     }
 }
 

@@ -500,20 +500,22 @@ fn from_row<D: Chamfer>(cur: &mut [D], nb: &[D]) {
 pub fn text_boxes(l: &Labels, n: usize) -> Vec<Option<[usize; 4]>> {
     let w = l.width as usize;
     let mut boxes: Vec<Option<[usize; 4]>> = vec![None; n];
-    for (i, &id) in l.ids.iter().enumerate() {
-        if id < labels::TEXT_BASE {
-            continue;
+    // By runs of one label along each row.
+    for (y, row) in l.ids.chunks_exact(w.max(1)).enumerate() {
+        let mut x = 0;
+        while x < w {
+            let id = row[x];
+            let end = x + 1 + same_from(&row[x + 1..], id);
+            let j = id.wrapping_sub(labels::TEXT_BASE) as usize;
+            if id >= labels::TEXT_BASE && j < n {
+                let b = boxes[j].get_or_insert([x, y, x, y]);
+                b[0] = b[0].min(x);
+                b[1] = b[1].min(y);
+                b[2] = b[2].max(end - 1);
+                b[3] = b[3].max(y);
+            }
+            x = end;
         }
-        let j = (id - labels::TEXT_BASE) as usize;
-        if j >= n {
-            continue;
-        }
-        let (x, y) = (i % w, i / w);
-        let b = boxes[j].get_or_insert([x, y, x, y]);
-        b[0] = b[0].min(x);
-        b[1] = b[1].min(y);
-        b[2] = b[2].max(x);
-        b[3] = b[3].max(y);
     }
     boxes
 }

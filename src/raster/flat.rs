@@ -158,10 +158,11 @@ fn render_group(g: &Group, max_bbox: IntRect, ts: Transform, pm: &mut PixmapMut)
     let ts = shift.pre_concat(ts);
     let mut layer = Pixmap::new(ibbox.width(), ibbox.height())?;
     render_nodes(g, max_bbox, ts, &mut layer.as_mut());
-    if let Some(clip) = g.clip_path() {
-        apply_clip(clip, ts, &mut layer);
-    }
-    composite(&layer, ibbox, pm);
+    let binary = match g.clip_path() {
+        Some(clip) => apply_clip(clip, ts, &mut layer),
+        None => opaque_or_clear(&layer),
+    };
+    composite(&layer, binary, ibbox, pm);
     Some(())
 }
 
@@ -179,7 +180,9 @@ fn fit_to_rect(r: IntRect, bounds: IntRect) -> Option<IntRect> {
 /// (alpha 0 in the clip pixmap) and cleared where it does not (255), and
 /// resvg's mask applied over that where the clip pixmap has other alphas
 /// (which it turns into the same values for the pixels already done).
-fn apply_clip(clip: &usvg::ClipPath, ts: Transform, layer: &mut Pixmap) {
+///
+/// Returns whether every layer pixel is then opaque or transparent.
+fn apply_clip(clip: &usvg::ClipPath, ts: Transform, layer: &mut Pixmap) -> bool {
     let mut clip_pm = Pixmap::new(layer.width(), layer.height()).expect("the layer's size");
     clip_pm.fill(tiny_skia::Color::BLACK);
     clip_children(
@@ -188,7 +191,7 @@ fn apply_clip(clip: &usvg::ClipPath, ts: Transform, layer: &mut Pixmap) {
         ts.pre_concat(clip.transform()),
         &mut clip_pm.as_mut(),
     );
-    let mut partial = false;
+    let (mut partial, mut translucent) = (false, false);
     for (px, c) in layer
         .data_mut()
         .chunks_exact_mut(4)
@@ -200,12 +203,23 @@ fn apply_clip(clip: &usvg::ClipPath, ts: Transform, layer: &mut Pixmap) {
             *v &= keep;
         }
         partial |= a.wrapping_sub(1) < 254;
+        translucent |= px[3].wrapping_sub(1) < 254;
     }
     if partial {
         let mut mask = tiny_skia::Mask::from_pixmap(clip_pm.as_ref(), tiny_skia::MaskType::Alpha);
         mask.invert();
         layer.apply_mask(&mask);
+        return opaque_or_clear(layer);
     }
+    !translucent
+}
+
+/// Whether every pixel of `layer` is opaque or transparent.
+fn opaque_or_clear(layer: &Pixmap) -> bool {
+    !layer
+        .data()
+        .chunks_exact(4)
+        .fold(false, |acc, p| acc | (p[3].wrapping_sub(1) < 254))
 }
 
 /// `resvg::clip::draw_children` for the trees [`supported`] accepts.
@@ -225,13 +239,9 @@ fn clip_children(parent: &Group, mode: tiny_skia::BlendMode, ts: Transform, pm: 
 }
 
 /// The layer onto the canvas at `ibbox`: its opaque pixels copied when
-/// every pixel is opaque or transparent (what source-over does with such
+/// every pixel is opaque or transparent (`binary`) (what source-over does with such
 /// pixels), else through the pattern shader as resvg does.
-fn composite(layer: &Pixmap, ibbox: IntRect, pm: &mut PixmapMut) {
-    let binary = !layer
-        .data()
-        .chunks_exact(4)
-        .fold(false, |acc, p| acc | (p[3].wrapping_sub(1) < 254));
+fn composite(layer: &Pixmap, binary: bool, ibbox: IntRect, pm: &mut PixmapMut) {
     if !binary {
         let paint = tiny_skia::Paint {
             shader: tiny_skia::Pattern::new(
