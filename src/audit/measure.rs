@@ -722,6 +722,67 @@ pub struct Reads {
     crossings: Vec<Vec<Vec<u32>>>,
 }
 
+/// The core pixels of the measured labels and every text pixel of the
+/// pixels `range` of the raster, as slots of a palette of their own:
+/// runs of one label first, skipped when the label is not read, then
+/// within them runs of core pixels (for the measured labels), then runs
+/// of one colour, each counted at once (a run never crosses into the
+/// raster's last pixels, whose colours are kept apart).
+fn count_runs(
+    rgba: &[u8],
+    l: &Labels,
+    g: &Geometry,
+    range: std::ops::Range<usize>,
+    parts: usize,
+    measured: &impl Fn(u16) -> bool,
+) -> (Palette, Vec<Counts>, Counts) {
+    let mut palette = Palette::new(l.ids.len());
+    let mut core: Vec<Tally> = (0..parts).map(|_| Tally::default()).collect();
+    let mut text = Tally::default();
+    let tail_from = palette.tail_from;
+    let (ids, core_mask) = (&l.ids[..range.end], &g.core[..range.end]);
+    let mut colours = |from: usize, to: usize, tally: &mut Tally| {
+        let mut i = from;
+        while i < to {
+            let end = if i < tail_from { to.min(tail_from) } else { to };
+            let word = u32::from_le_bytes([
+                rgba[4 * i],
+                rgba[4 * i + 1],
+                rgba[4 * i + 2],
+                rgba[4 * i + 3],
+            ]);
+            let len = 1 + same_colour(&rgba[4 * (i + 1)..4 * end], word);
+            tally.add(palette.slot(rgba, i), len);
+            i += len;
+        }
+    };
+    let mut i = range.start;
+    while i < range.end {
+        let id = ids[i];
+        let end = i + 1 + same_from(&ids[i + 1..], id);
+        if measured(id) {
+            let tally = &mut core[id as usize];
+            let mut j = i;
+            while j < end {
+                let c = core_mask[j];
+                let k = j + 1 + same_from(&core_mask[j + 1..end], c);
+                if c {
+                    colours(j, k, tally);
+                }
+                j = k;
+            }
+        } else if id >= labels::TEXT_BASE {
+            colours(i, end, &mut text);
+        }
+        i = end;
+    }
+    (
+        palette,
+        core.into_iter().map(Tally::finish).collect(),
+        text.finish(),
+    )
+}
+
 impl Reads {
     /// Gather the reads from the straight RGBA8 raster `rgba` (the normal
     /// view) with its label raster `l`, core mask, crossings and text
@@ -736,9 +797,6 @@ impl Reads {
         parts: usize,
     ) -> Reads {
         let (w, h) = (l.width as usize, l.height as usize);
-        let mut palette = Palette::new(w * h);
-        let mut core: Vec<Tally> = (0..parts).map(|_| Tally::default()).collect();
-        let mut text = Tally::default();
         // Borders, text and other drawing (labels 1 to 3) are not measured.
         let measured = |id: u16| {
             (id as usize) < parts
@@ -747,49 +805,30 @@ impl Reads {
                     Part::Background | Part::Fill(_) | Part::Swatch(_)
                 )
         };
-        // Runs of pixels alike in label, core and colour are counted at
-        // once (a run never crosses into the raster's last pixels, whose
-        // colours are kept apart): runs of one label first, skipped when
-        // the label is not read, then within them runs of core pixels
-        // (for the measured labels), then runs of one colour.
-        let tail_from = palette.tail_from;
-        let (ids, core_mask) = (&l.ids[..], &g.core[..]);
-        let mut colours = |from: usize, to: usize, tally: &mut Tally| {
-            let mut i = from;
-            while i < to {
-                let end = if i < tail_from { to.min(tail_from) } else { to };
-                let word = u32::from_le_bytes([
-                    rgba[4 * i],
-                    rgba[4 * i + 1],
-                    rgba[4 * i + 2],
-                    rgba[4 * i + 3],
-                ]);
-                let len = 1 + same_colour(&rgba[4 * (i + 1)..4 * end], word);
-                tally.add(palette.slot(rgba, i), len);
-                i += len;
+        // The two halves of the raster side by side, each with its own
+        // palette; the second's slots are then renumbered into the first's.
+        let mid = (h / 2) * w;
+        let count = |from: usize, to: usize| count_runs(rgba, l, g, from..to, parts, &measured);
+        let ((mut palette, first, text_a), (second_palette, second, text_b)) =
+            rayon::join(|| count(0, mid), || count(mid, w * h));
+        let renumber: Vec<u32> = second_palette
+            .keys
+            .iter()
+            .map(|&k| palette.slot_of_key(k))
+            .collect();
+        let merge = |a: Counts, b: Counts| -> Counts {
+            let mut m: std::collections::BTreeMap<u32, usize> = a.into_iter().collect();
+            for (s, n) in b {
+                *m.entry(renumber[s as usize]).or_insert(0) += n;
             }
+            m.into_iter().collect()
         };
-        let mut i = 0;
-        while i < ids.len() {
-            let id = ids[i];
-            let end = i + 1 + same_from(&ids[i + 1..], id);
-            if measured(id) {
-                let tally = &mut core[id as usize];
-                let mut j = i;
-                while j < end {
-                    let c = core_mask[j];
-                    let k = j + 1 + same_from(&core_mask[j + 1..end], c);
-                    if c {
-                        colours(j, k, tally);
-                    }
-                    j = k;
-                }
-            } else if id >= labels::TEXT_BASE {
-                colours(i, end, &mut text);
-            }
-            i = end;
-        }
-        let mut parts_counts: Vec<Counts> = core.into_iter().map(Tally::finish).collect();
+        let mut parts_counts: Vec<Counts> = first
+            .into_iter()
+            .zip(second)
+            .map(|(a, b)| merge(a, b))
+            .collect();
+        let text = merge(text_a, text_b);
         // Labels without core pixels (marks under 3 px): all their pixels.
         let bare: Vec<bool> = (0..parts)
             .map(|k| parts_counts[k].is_empty() && measured(k as u16))
@@ -836,7 +875,7 @@ impl Reads {
         Reads {
             palette,
             parts: parts_counts,
-            text: text.finish(),
+            text,
             around,
             crossings,
         }
