@@ -8,9 +8,12 @@
 //! fast path (`simulate_rgba8`, itself checked against published matrices
 //! in tests/vision_reference.rs) and read pixel by pixel; flood-fill
 //! components; a 3 x 3 window per pixel; every row and column scanned as
-//! a line of pixels. Figures: the choropleth template on the demo data
-//! and a figure made here with sub-3-px marks, a gradient (many distinct
-//! colours), text without a flat fill and an odd pixel count.
+//! a line of pixels; and the label raster rendered with clipped groups
+//! composited directly, byte for byte as resvg renders it. Figures: the
+//! choropleth template on the demo data and a figure made here with
+//! sub-3-px marks, a gradient (many distinct colours), text without a
+//! flat fill and an odd pixel count; random label rasters; clipped
+//! scenes with and without anti-aliasing.
 
 mod common;
 
@@ -220,6 +223,10 @@ fn check_figure(svg: &str, dpi: f64) {
     let bg = label.classes.background.unwrap_or(Srgb::new(1.0, 1.0, 1.0));
     let img = raster::render(name, &raster::parse(name, svg.as_bytes()).unwrap(), dpi, bg).unwrap();
     let lab = labels::render_labels(name, &label, dpi).unwrap();
+    // The label raster as resvg renders the label SVG.
+    let doc = raster::parse(name, label.svg.as_bytes()).unwrap();
+    assert!(raster::flat::supported(doc.tree.root()));
+    assert_same_render(&doc, dpi);
     let n = label.classes.ids.len();
     let g = measure::geometry(&lab, n, dpi);
     assert_same_geometry(&g, &plain_geometry(&lab, n, dpi));
@@ -348,4 +355,126 @@ fn the_palette_simulates_every_pixel_as_the_whole_raster_does() {
             }
         }
     }
+}
+
+#[test]
+fn random_label_rasters_have_the_same_geometry_both_ways() {
+    // Label rasters made of random rectangles and single pixels: classes,
+    // swatches, borders (runs of them wider and narrower than the widest
+    // gap bridged), the background, text and other drawing; thin strips
+    // and squares of odd sizes, one pixel wide or high included.
+    let mut rng = SplitMix64(0x6e0_3e7a);
+    let pick = |rng: &mut SplitMix64, n: usize| (rng.next_u64() % n as u64) as usize;
+    let sizes = [
+        (1, 1),
+        (1, 9),
+        (9, 1),
+        (2, 2),
+        (3, 17),
+        (17, 3),
+        (31, 29),
+        (64, 48),
+        (97, 61),
+    ];
+    for (case, &(w, h)) in sizes.iter().cycle().take(45).enumerate() {
+        let classes = 1 + case % 4;
+        let mut ids = vec![labels::BACKGROUND; w * h];
+        let label = |rng: &mut SplitMix64| match pick(rng, 10) {
+            0 => labels::BACKGROUND,
+            1 | 2 => labels::BORDER,
+            3 => labels::TEXT_BASE + pick(rng, 2) as u16,
+            4 => labels::OTHER,
+            5 => labels::swatch_label(pick(rng, classes)),
+            // One past the classes: a fill label no class owns.
+            6 if case % 3 == 0 => labels::fill_label(classes),
+            _ => labels::fill_label(pick(rng, classes)),
+        };
+        for _ in 0..pick(&mut rng, 40) {
+            let (x0, y0) = (pick(&mut rng, w), pick(&mut rng, h));
+            let (x1, y1) = (
+                (x0 + 1 + pick(&mut rng, w / 2 + 1)).min(w),
+                (y0 + 1 + pick(&mut rng, h / 2 + 1)).min(h),
+            );
+            let l = label(&mut rng);
+            for y in y0..y1 {
+                ids[y * w + x0..y * w + x1].fill(l);
+            }
+        }
+        for _ in 0..pick(&mut rng, w * h / 8 + 1) {
+            let i = pick(&mut rng, w * h);
+            ids[i] = label(&mut rng);
+        }
+        let lab = Labels {
+            width: w as u32,
+            height: h as u32,
+            ids,
+        };
+        for dpi in [24.0, 96.0] {
+            let g = measure::geometry(&lab, classes, dpi);
+            assert_same_geometry(&g, &plain_geometry(&lab, classes, dpi));
+        }
+        // Text boxes: the extremes of each text element's pixels.
+        let mut want: Vec<Option<[usize; 4]>> = vec![None; 2];
+        for (i, &id) in lab.ids.iter().enumerate() {
+            if id >= labels::TEXT_BASE {
+                let (x, y) = (i % w, i / w);
+                let b = want[(id - labels::TEXT_BASE) as usize].get_or_insert([x, y, x, y]);
+                *b = [b[0].min(x), b[1].min(y), b[2].max(x), b[3].max(y)];
+            }
+        }
+        assert_eq!(measure::text_boxes(&lab, 2), want);
+        assert_eq!(measure::text_boxes(&lab, 1), want[..1]);
+    }
+}
+
+/// `raster::render_flat` gives resvg's pixels, byte for byte.
+fn assert_same_render(doc: &raster::Document, dpi: f64) {
+    let name = Path::new("fig.svg");
+    let bg = Srgb::new(0.2, 0.4, 0.6);
+    let want = raster::render(name, doc, dpi, bg).unwrap();
+    let got = raster::render_flat(name, doc, dpi, bg).unwrap();
+    assert_eq!((got.width, got.height), (want.width, want.height));
+    let differ = got
+        .rgba
+        .chunks_exact(4)
+        .zip(want.rgba.chunks_exact(4))
+        .filter(|(a, b)| a != b)
+        .count();
+    assert_eq!(differ, 0, "{differ} pixels differ from resvg's");
+}
+
+#[test]
+fn clipped_scenes_render_as_resvg_renders_them() {
+    // Clipped groups inside clipped groups, a clip path with its own
+    // transform and two shapes, a clip reaching past the canvas, text and
+    // strokes inside a clip: without anti-aliasing (the label raster's
+    // case, composited directly) and with it (partly covered pixels in
+    // the clip or the layer: resvg's own steps), at two resolutions.
+    for aa in ["crispEdges", "geometricPrecision"] {
+        let svg = format!(
+            r##"<svg xmlns="http://www.w3.org/2000/svg" width="90" height="70" viewBox="0 0 90 70" shape-rendering="{aa}" text-rendering="optimizeSpeed">
+<defs>
+<clipPath id="a"><rect x="4.3" y="5.1" width="60.7" height="50.2"/></clipPath>
+<clipPath id="b" transform="rotate(7 30 30)"><circle cx="30" cy="30" r="18.4"/><rect x="50" y="40" width="9.5" height="9.5"/></clipPath>
+<clipPath id="c"><rect x="-20" y="-20" width="60" height="200"/></clipPath>
+</defs>
+<rect width="90" height="70" fill="#000000"/>
+<g clip-path="url(#a)"><rect x="0" y="0" width="80" height="60" fill="#040000" stroke="#010000" stroke-width="0.6"/>
+<g transform="translate(3.7 2.2)" clip-path="url(#b)"><path d="M5 5L70 12L40 60Z" fill="#060000" stroke="#010000" stroke-width="1.3"/></g>
+<text x="8" y="50" font-size="9" fill="#008000">Aq 42</text></g>
+<g clip-path="url(#c)"><rect x="20" y="30" width="65" height="35" fill="#080000"/></g>
+<circle cx="75" cy="15" r="9.2" fill="#0a0000" stroke="#010000" stroke-width="0.4"/>
+</svg>"##
+        );
+        let doc = raster::parse(Path::new("clip.svg"), svg.as_bytes()).unwrap();
+        assert!(raster::flat::supported(doc.tree.root()));
+        for dpi in [96.0, 233.0] {
+            assert_same_render(&doc, dpi);
+        }
+    }
+    // Group opacity: left to resvg.
+    let svg = r##"<svg xmlns="http://www.w3.org/2000/svg" width="20" height="20"><g opacity="0.5"><rect width="10" height="10" fill="#ff0000"/></g></svg>"##;
+    let doc = raster::parse(Path::new("op.svg"), svg.as_bytes()).unwrap();
+    assert!(!raster::flat::supported(doc.tree.root()));
+    assert_same_render(&doc, 96.0);
 }

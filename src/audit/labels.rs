@@ -3,8 +3,7 @@
 //! class's legend swatch, borders, text, everything else, the background),
 //! rendered without anti-aliasing (`shape-rendering="crispEdges"`,
 //! `text-rendering="optimizeSpeed"`) with the same size and DPI as the
-//! normal raster, and decoded back into label ids. Also owns the core mask:
-//! pixels whose 3 x 3 neighbourhood carries one label.
+//! normal raster, and decoded back into label ids.
 
 use std::fmt::Write as _;
 use std::path::Path;
@@ -690,11 +689,12 @@ pub struct Labels {
     pub ids: Vec<u16>,
 }
 
-/// Render the label SVG at `dpi` and decode it. Colours that are no label
+/// Render the label SVG at `dpi` (with [`raster::render_flat`]: the same
+/// pixels as [`raster::render`]) and decode it. Colours that are no label
 /// (there should be none without anti-aliasing) decode as [`OTHER`].
 pub fn render_labels(name: &Path, label: &LabelSvg, dpi: f64) -> Result<Labels> {
     let doc = raster::parse(name, label.svg.as_bytes())?;
-    let img = raster::render(name, &doc, dpi, Srgb::new(0.0, 0.0, 0.0))?;
+    let img = raster::render_flat(name, &doc, dpi, Srgb::new(0.0, 0.0, 0.0))?;
     let top = fill_label(label.classes.ids.len());
     let ids = img
         .rgba
@@ -714,42 +714,4 @@ pub fn render_labels(name: &Path, label: &LabelSvg, dpi: f64) -> Result<Labels> 
         height: img.height,
         ids,
     })
-}
-
-impl Labels {
-    /// Core pixels: those whose whole 3 x 3 neighbourhood (inside the
-    /// image) carries the same label. The rest are edge pixels.
-    pub fn core(&self) -> Vec<bool> {
-        let (w, h) = (self.width as usize, self.height as usize);
-        if w == 0 {
-            return Vec::new();
-        }
-        // A pixel's row of three (inside the image) carries its label.
-        let mut flat = vec![false; w * h];
-        for (ids, out) in self.ids.chunks_exact(w).zip(flat.chunks_exact_mut(w)) {
-            for x in 0..w {
-                let l = ids[x];
-                out[x] = (x == 0 || ids[x - 1] == l) && (x + 1 == w || ids[x + 1] == l);
-            }
-        }
-        // And so do the rows of three above and below, with the same label.
-        let mut core = vec![false; w * h];
-        for y in 0..h {
-            let i = y * w;
-            let (ids, f) = (&self.ids[i..i + w], &flat[i..i + w]);
-            let out = &mut core[i..i + w];
-            out.copy_from_slice(f);
-            for dy in [y.checked_sub(1), (y + 1 < h).then_some(y + 1)]
-                .into_iter()
-                .flatten()
-            {
-                let j = dy * w;
-                let (nids, nf) = (&self.ids[j..j + w], &flat[j..j + w]);
-                for x in 0..w {
-                    out[x] &= nf[x] && nids[x] == ids[x];
-                }
-            }
-        }
-        core
-    }
 }

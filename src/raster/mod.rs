@@ -4,12 +4,17 @@
 //!
 //! SVG user units are CSS pixels (96 per inch); rendering at `dpi` scales by
 //! `dpi / 96`. The output is straight (not premultiplied) RGBA8 composited
-//! over an opaque background, ready for the vision models.
+//! over an opaque background, ready for the vision models. The audit's
+//! label raster, painted in flat opaque colours without anti-aliasing, is
+//! rendered with [`render_flat`]: the same pixels, with clipped groups
+//! composited more cheaply ([`flat`]).
 //!
 //! SVG from other tools is untrusted: no external file or address is ever
 //! read (an `<image>` that points outside the document is left out and
 //! reported), and documents declaring huge sizes are refused before
 //! rendering.
+
+pub mod flat;
 
 use std::path::Path;
 use std::sync::{Arc, Mutex, OnceLock};
@@ -104,6 +109,34 @@ impl Raster {
 
 /// Render `doc` at `dpi` over an opaque `background`.
 pub fn render(name: &Path, doc: &Document, dpi: f64, background: Srgb) -> Result<Raster> {
+    draw(name, doc, dpi, background, |tree, ts, pm| {
+        resvg::render(tree, ts, pm)
+    })
+}
+
+/// Render `doc` as [`render`] does, byte for byte, for a scene painted in
+/// flat opaque colours without anti-aliasing (the audit's label raster):
+/// its clipped groups are composited more cheaply ([`flat`]); trees with
+/// gradients, patterns, images, masks, filters or group opacity are
+/// rendered by resvg.
+pub fn render_flat(name: &Path, doc: &Document, dpi: f64, background: Srgb) -> Result<Raster> {
+    draw(name, doc, dpi, background, |tree, ts, pm| {
+        if flat::supported(tree.root()) {
+            let max_bbox = flat::max_bbox(pm.width(), pm.height());
+            flat::render_nodes(tree.root(), max_bbox, ts, pm);
+        } else {
+            resvg::render(tree, ts, pm);
+        }
+    })
+}
+
+fn draw(
+    name: &Path,
+    doc: &Document,
+    dpi: f64,
+    background: Srgb,
+    paint: impl FnOnce(&usvg::Tree, tiny_skia::Transform, &mut tiny_skia::PixmapMut),
+) -> Result<Raster> {
     let size = doc.tree.size();
     let scale = dpi / 96.0;
     let w = (size.width() as f64 * scale).ceil();
@@ -122,7 +155,7 @@ pub fn render(name: &Path, doc: &Document, dpi: f64, background: Srgb) -> Result
         .ok_or_else(|| Error::Internal("a pixmap of a checked size could not be made".into()))?;
     let [r, g, b] = background.to_rgb8();
     pixmap.fill(tiny_skia::Color::from_rgba8(r, g, b, 255));
-    resvg::render(
+    paint(
         &doc.tree,
         tiny_skia::Transform::from_scale(scale as f32, scale as f32),
         &mut pixmap.as_mut(),
